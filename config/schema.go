@@ -1,0 +1,440 @@
+package config
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strconv"
+	"strings"
+)
+
+// Config is a whole configuration. Every field has a default (see Default)
+// and a comment in the template (see Template).
+type Config struct {
+	// Title names the study in the outputs.
+	Title string `toml:"title"`
+	// Seed fixes every random choice (demo data, clustering restarts,
+	// sensitivity samples). The same inputs and seed give the same outputs.
+	Seed uint64 `toml:"seed"`
+
+	Inputs        Inputs        `toml:"inputs"`
+	Variables     []Variable    `toml:"variable"`
+	Indicators    []Indicator   `toml:"indicator"`
+	Normalization Normalization `toml:"normalization"`
+	Weighting     Weighting     `toml:"weighting"`
+	Aggregation   Aggregation   `toml:"aggregation"`
+	Missing       Missing       `toml:"missing"`
+	Memory        Memory        `toml:"memory"`
+	Output        Output        `toml:"output"`
+
+	// File is the path the configuration was read from ("" when it was
+	// built in code). Relative input paths are resolved against its
+	// directory.
+	File string `toml:"-"`
+	// Lines maps key paths (e.g. "indicator[2].weight") to the position of
+	// their value, for error messages. Nil when built in code.
+	Lines map[string]Pos `toml:"-"`
+}
+
+// Inputs names the input files.
+type Inputs struct {
+	// Events is the table of per-event departures (CSV).
+	Events string `toml:"events"`
+	// Attributes is the station and basin attribute table (CSV or XLSX).
+	Attributes string `toml:"attributes"`
+	// RecordYears is the length of record, in years, that frequency
+	// indicators divide by when the attribute table has no RecordYearsColumn
+	// value for a station. 0 means: take it from the attribute table only.
+	RecordYears float64 `toml:"record_years"`
+	// RecordYearsColumn is the attribute column holding each station's
+	// length of record in years.
+	RecordYearsColumn string `toml:"record_years_column"`
+}
+
+// Variable describes one water-quality variable that events refer to.
+type Variable struct {
+	Name  string `toml:"name"`
+	Units string `toml:"units"`
+	// Harmful says which direction of departure from normal is harmful:
+	// "increase" (warmer, saltier) or "decrease" (less dissolved oxygen).
+	Harmful Direction `toml:"harmful"`
+}
+
+// Indicator defines one column of the index.
+type Indicator struct {
+	// Name identifies the indicator in outputs and in the AHP order.
+	Name string `toml:"name"`
+	// Label is a human-readable description with units, for reports.
+	Label string `toml:"label"`
+	// Measure is what is computed: magnitude, recovery, memory, frequency
+	// (from events) or attribute (a column of the attribute table).
+	Measure Measure `toml:"measure"`
+	// Kinds and Variables filter the events a measure uses; empty means all.
+	Kinds     []string `toml:"kinds"`
+	Variables []string `toml:"variables"`
+	// Attribute is the attribute column for measure = "attribute".
+	Attribute string `toml:"attribute"`
+	// Transform is applied to attribute values before normalisation.
+	Transform Transform `toml:"transform"`
+	// Better is "higher" or "lower": which raw values mean more resilient.
+	// Empty takes the measure's default (lower for every event measure).
+	Better Better `toml:"better"`
+	// Weight is the indicator's weight for weighting.method = "explicit".
+	Weight *Weight `toml:"weight"`
+	// Normalize overrides normalization.method for this indicator.
+	Normalize NormMethod `toml:"normalize"`
+	// Target and Tolerance define method "target": values within
+	// Tolerance of Target score 1.
+	Target    *float64 `toml:"target"`
+	Tolerance float64  `toml:"tolerance"`
+}
+
+// Normalization configures how raw indicator values become comparable.
+type Normalization struct {
+	Method NormMethod `toml:"method"`
+	// Scope is "all" (every station together) or "group" (peer groups from
+	// the attribute table's group column).
+	Scope Scope `toml:"scope"`
+}
+
+// Weighting configures indicator weights.
+type Weighting struct {
+	// Method is "explicit" (each indicator's weight, normalised to sum 1),
+	// "equal", or "ahp" (Saaty's pairwise comparisons).
+	Method WeightMethod `toml:"method"`
+	AHP    AHP          `toml:"ahp"`
+}
+
+// AHP holds a pairwise comparison matrix on Saaty's 1–9 scale.
+type AHP struct {
+	// Order names the indicators in the order of the matrix rows.
+	Order []string `toml:"order"`
+	// Matrix[i][j] says how much more important Order[i] is than Order[j].
+	// Entries are positive numbers or fractions written as strings ("1/3").
+	Matrix [][]Judgement `toml:"matrix"`
+	// MaxCR is the largest consistency ratio accepted.
+	MaxCR float64 `toml:"max_cr"`
+	// AcceptInconsistent accepts a matrix whose CR exceeds MaxCR (with a
+	// warning in every output) instead of rejecting it.
+	AcceptInconsistent bool `toml:"accept_inconsistent"`
+}
+
+// Aggregation configures how normalised values combine into a score.
+type Aggregation struct {
+	// Method is "arithmetic" (weighted mean) or "geometric" (weighted
+	// product).
+	Method AggMethod `toml:"method"`
+	// Floor keeps zeros out of the geometric product: each normalised value
+	// v in [0,1] enters as Floor + (1 − Floor)·v.
+	Floor float64 `toml:"floor"`
+}
+
+// Missing configures what happens to a station with a missing indicator.
+type Missing struct {
+	// Policy is "renormalize" (drop the indicator for that station and
+	// rescale its remaining weights), "impute" (use the median of the
+	// station's normalisation group) or "error".
+	Policy MissingPolicy `toml:"policy"`
+	// MinEvents flags stations with fewer events than this.
+	MinEvents int `toml:"min_events"`
+}
+
+// Memory configures the drought-memory indicator.
+type Memory struct {
+	// MinEvents is the fewest events with a known antecedent dryness for
+	// which the Theil–Sen slope is computed.
+	MinEvents int `toml:"min_events"`
+	// Dryness says what antecedent_dryness holds: "fraction" (share of the
+	// prior period in drought, 0–1) or "index" (a standardized index).
+	Dryness DrynessScale `toml:"dryness"`
+}
+
+// Output configures what is written and printed.
+type Output struct {
+	// Dir is the output folder, relative to the configuration file.
+	Dir string `toml:"dir"`
+	// Print is how many stations from the top and from the bottom the
+	// ranking table on the terminal shows.
+	Print int `toml:"print"`
+}
+
+// text decodes a TOML string for a field with a closed set of choices.
+// Membership is checked by Validate, so that every bad choice in a file is
+// reported at once.
+func text(v any, what string) (string, error) {
+	s, ok := v.(string)
+	if !ok {
+		return "", fmt.Errorf("%s: want a string, got %s", what, describe(v))
+	}
+	return s, nil
+}
+
+// choiceMsg returns "" when s is one of allowed, else an error message.
+func choiceMsg(s string, allowed []string) string {
+	if slices.Contains(allowed, s) {
+		return ""
+	}
+	msg := fmt.Sprintf("want one of %s, got %q", quoteList(allowed), s)
+	if near := closest(s, allowed); near != "" {
+		msg += fmt.Sprintf(" (did you mean %q?)", near)
+	}
+	return msg
+}
+
+func quoteList(xs []string) string {
+	q := make([]string, len(xs))
+	for i, x := range xs {
+		q[i] = strconv.Quote(x)
+	}
+	return strings.Join(q, ", ")
+}
+
+func describe(v any) string {
+	switch v := v.(type) {
+	case string:
+		return strconv.Quote(v)
+	case int64:
+		return "the integer " + strconv.FormatInt(v, 10)
+	case float64:
+		return "the number " + strconv.FormatFloat(v, 'g', -1, 64)
+	case bool:
+		return "the boolean " + strconv.FormatBool(v)
+	case []any:
+		return "an array"
+	case map[string]any:
+		return "a table"
+	}
+	return fmt.Sprintf("%T", v)
+}
+
+// Direction is the harmful direction of a departure.
+type Direction string
+
+const (
+	Increase Direction = "increase"
+	Decrease Direction = "decrease"
+)
+
+// Sign returns +1 when an increase is harmful and −1 when a decrease is.
+func (d Direction) Sign() float64 {
+	if d == Decrease {
+		return -1
+	}
+	return 1
+}
+
+func (d *Direction) UnmarshalTOML(v any) error {
+	s, err := text(v, "harmful direction")
+	*d = Direction(s)
+	return err
+}
+
+// Measure is what an indicator computes.
+type Measure string
+
+const (
+	Magnitude Measure = "magnitude"
+	Recovery  Measure = "recovery"
+	MemoryM   Measure = "memory"
+	Frequency Measure = "frequency"
+	Attribute Measure = "attribute"
+)
+
+// Measures lists every measure.
+var Measures = []Measure{Magnitude, Recovery, MemoryM, Frequency, Attribute}
+
+// FromEvents reports whether the measure is computed from the events table.
+func (m Measure) FromEvents() bool { return m != Attribute && m != "" }
+
+func (m *Measure) UnmarshalTOML(v any) error {
+	s, err := text(v, "measure")
+	*m = Measure(s)
+	return err
+}
+
+// Transform is applied to attribute values before normalisation.
+type Transform string
+
+const (
+	NoTransform Transform = "none"
+	Log         Transform = "log"
+	Sqrt        Transform = "sqrt"
+)
+
+func (t *Transform) UnmarshalTOML(v any) error {
+	s, err := text(v, "transform")
+	*t = Transform(s)
+	return err
+}
+
+// Better says which raw values are more resilient.
+type Better string
+
+const (
+	Higher Better = "higher"
+	Lower  Better = "lower"
+)
+
+func (b *Better) UnmarshalTOML(v any) error {
+	s, err := text(v, "better")
+	*b = Better(s)
+	return err
+}
+
+// NormMethod is a normalisation method.
+type NormMethod string
+
+const (
+	MinMax  NormMethod = "minmax"
+	ZScore  NormMethod = "zscore"
+	Rank    NormMethod = "rank"
+	TargetN NormMethod = "target"
+)
+
+// NormMethods lists every normalisation method.
+var NormMethods = []NormMethod{MinMax, ZScore, Rank, TargetN}
+
+func (n *NormMethod) UnmarshalTOML(v any) error {
+	s, err := text(v, "normalisation method")
+	*n = NormMethod(s)
+	return err
+}
+
+// Scope is the set of stations a normalisation is computed over.
+type Scope string
+
+const (
+	ScopeAll   Scope = "all"
+	ScopeGroup Scope = "group"
+)
+
+func (s *Scope) UnmarshalTOML(v any) error {
+	c, err := text(v, "scope")
+	*s = Scope(c)
+	return err
+}
+
+// WeightMethod is how weights are set.
+type WeightMethod string
+
+const (
+	Explicit WeightMethod = "explicit"
+	Equal    WeightMethod = "equal"
+	AHPW     WeightMethod = "ahp"
+)
+
+func (w *WeightMethod) UnmarshalTOML(v any) error {
+	s, err := text(v, "weighting method")
+	*w = WeightMethod(s)
+	return err
+}
+
+// AggMethod is an aggregation method.
+type AggMethod string
+
+const (
+	Arithmetic AggMethod = "arithmetic"
+	Geometric  AggMethod = "geometric"
+)
+
+// AggMethods lists every aggregation method.
+var AggMethods = []AggMethod{Arithmetic, Geometric}
+
+func (a *AggMethod) UnmarshalTOML(v any) error {
+	s, err := text(v, "aggregation method")
+	*a = AggMethod(s)
+	return err
+}
+
+// MissingPolicy is what happens to missing indicator values.
+type MissingPolicy string
+
+const (
+	Renormalize MissingPolicy = "renormalize"
+	Impute      MissingPolicy = "impute"
+	ErrorPolicy MissingPolicy = "error"
+)
+
+func (m *MissingPolicy) UnmarshalTOML(v any) error {
+	s, err := text(v, "missing policy")
+	*m = MissingPolicy(s)
+	return err
+}
+
+// DrynessScale says what the antecedent_dryness column holds.
+type DrynessScale string
+
+const (
+	Fraction DrynessScale = "fraction"
+	Index    DrynessScale = "index"
+)
+
+func (d *DrynessScale) UnmarshalTOML(v any) error {
+	s, err := text(v, "dryness scale")
+	*d = DrynessScale(s)
+	return err
+}
+
+// Weight is a non-negative, finite indicator weight.
+type Weight float64
+
+func (w *Weight) UnmarshalTOML(v any) error {
+	x, err := number(v, "weight")
+	if err != nil {
+		return err
+	}
+	*w = Weight(x) // the sign is checked by Validate
+	return nil
+}
+
+// Judgement is one AHP matrix entry: a positive number, or a fraction
+// written as a string such as "1/3".
+type Judgement float64
+
+func (j *Judgement) UnmarshalTOML(v any) error {
+	var x float64
+	if s, ok := v.(string); ok {
+		num, den, isFrac := strings.Cut(strings.TrimSpace(s), "/")
+		a, err1 := strconv.ParseFloat(strings.TrimSpace(num), 64)
+		b := 1.0
+		var err2 error
+		if isFrac {
+			b, err2 = strconv.ParseFloat(strings.TrimSpace(den), 64)
+		}
+		x = a / b
+		if err1 != nil || err2 != nil || b == 0 {
+			x = math.NaN() // reported by Validate
+		}
+	} else {
+		var err error
+		if x, err = number(v, "ahp judgement"); err != nil {
+			return err
+		}
+	}
+	*j = Judgement(x) // positivity is checked by Validate
+	return nil
+}
+
+func number(v any, what string) (float64, error) {
+	var x float64
+	switch v := v.(type) {
+	case int64:
+		x = float64(v)
+	case float64:
+		x = v
+	default:
+		return 0, fmt.Errorf("%s: want a number, got %s", what, describe(v))
+	}
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return 0, fmt.Errorf("%s: want a finite number, got %g", what, x)
+	}
+	return x, nil
+}
+
+func strs[T ~string](xs []T) []string {
+	out := make([]string, len(xs))
+	for i, x := range xs {
+		out[i] = string(x)
+	}
+	return out
+}
