@@ -1,10 +1,3 @@
-// Package series holds daily station records and reads them from the long
-// and wide CSV layouts.
-//
-// A Station is one station's complete daily record: every variable is a
-// slice of daily values aligned on the same first day, with NaN where no
-// usable value exists. Readers deliver stations one at a time so that memory
-// holds one station's record, never a whole file.
 package series
 
 import (
