@@ -99,7 +99,6 @@ func ReadCSV(r io.Reader, name string) (*Table, []error) {
 		if err == io.EOF {
 			break
 		}
-		line, _ := cr.FieldPos(0)
 		if err != nil {
 			var pe *csv.ParseError
 			if errors.As(err, &pe) {
@@ -109,6 +108,7 @@ func ReadCSV(r io.Reader, name string) (*Table, []error) {
 			errs.Add(&tabular.ParseError{File: name, Err: err})
 			return nil, errs.Errors()
 		}
+		line, _ := cr.FieldPos(0)
 		r := row{line: line, cells: append([]string(nil), rec...), cols: make([]int, len(rec))}
 		for i := range rec {
 			_, r.cols[i] = cr.FieldPos(i)
