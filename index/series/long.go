@@ -250,26 +250,28 @@ func (s *splitter) fill() {
 // record returns the next record (line end and trailing '\r' removed) and
 // advances past it. ok is false at the end of the input or on an error,
 // which is then in s.rerr or returned as a problem.
-func (s *splitter) record() (rec []byte, breaks int, prob *ParseError, ok bool) {
+// at is the record's offset in s.buf, valid until the next call.
+func (s *splitter) record() (rec []byte, at, breaks int, prob *ParseError, ok bool) {
 	for {
 		n, adv, br, more := scanRecord(s.buf[s.pos:s.n], s.eof)
 		if more {
 			if s.n-s.pos >= maxRecord {
-				return nil, 0, s.rd.errorf(s.line, 1, "", ErrTooLong,
+				return nil, s.pos, 0, s.rd.errorf(s.line, 1, "", ErrTooLong,
 					fmt.Sprintf("want a record of at most %d bytes (is a quote unterminated?), got more", maxRecord)), false
 			}
 			s.fill()
 			continue
 		}
 		if adv == 0 {
-			return nil, 0, nil, false
+			return nil, s.pos, 0, nil, false
 		}
 		rec = s.buf[s.pos : s.pos+n]
 		if len(rec) > 0 && rec[len(rec)-1] == '\r' {
 			rec = rec[:len(rec)-1]
 		}
+		at = s.pos
 		s.pos += adv
-		return rec, br, nil, true
+		return rec, at, br, nil, true
 	}
 }
 
@@ -281,7 +283,7 @@ func (s *splitter) header(ignore []string) error {
 	if bytes.HasPrefix(s.buf[:s.n], []byte("\xef\xbb\xbf")) {
 		s.pos, s.bstart = 3, 3
 	}
-	rec, br, prob, ok := s.record()
+	rec, _, br, prob, ok := s.record()
 	if prob != nil {
 		if i := bytes.IndexByte(s.buf[s.pos:s.n], '\r'); i >= 0 {
 			return s.rd.errorf(1, i+1, "", ErrHeader, "want LF or CRLF line ends, got a lone CR")
@@ -320,12 +322,11 @@ func (s *splitter) next() *block {
 		return &block{eof: true}
 	}
 	for {
-		start, line := s.pos, s.line
-		rec, br, prob, ok := s.record()
+		line := s.line
+		rec, at, br, prob, ok := s.record()
 		if prob != nil || !ok {
-			if s.bstart < start {
-				s.pos, s.line = start, line // deliver the block first
-				return s.cut(start)
+			if s.bstart < at {
+				return s.cut(at) // deliver the block first
 			}
 			s.done = true
 			if prob != nil {
@@ -338,19 +339,19 @@ func (s *splitter) next() *block {
 		}
 		s.line += 1 + br
 		if len(rec) == 0 {
-			if s.bstart == start {
+			if s.bstart == at {
 				s.bstart = s.pos // an empty line before a block's first record
 			}
 			continue
 		}
 		raw, found := s.stationOf(rec)
 		if !found {
-			if s.bstart == start {
+			if s.bstart == at {
 				s.id, s.cur, s.bline = "", s.cur[:0], line
 			}
 			continue
 		}
-		if s.bstart == start { // first record of a block
+		if s.bstart == at { // first record of a block
 			s.cur = append(s.cur[:0], raw...)
 			s.id, s.bline = string(raw), line
 			continue
@@ -362,8 +363,8 @@ func (s *splitter) next() *block {
 			s.cur = append(s.cur[:0], raw...)
 			continue
 		}
-		s.pos, s.line = start, line
-		return s.cut(start)
+		s.pos, s.line = at, line
+		return s.cut(at)
 	}
 }
 
