@@ -112,17 +112,17 @@ func ReadWide(r io.Reader, name string, v Var, opt Options) ([]*Station, Summary
 		if err == io.EOF {
 			break
 		}
-		line, _ := cr.FieldPos(0)
 		if err != nil {
 			p := csvProblem(err, rec, ns+1)
 			if p == nil {
-				return nil, sum, fmt.Errorf("%s: line %d: %w", name, line, err)
+				return nil, sum, fmt.Errorf("%s: %w", name, err)
 			}
 			sum.Rows++
 			problem(p)
 			continue
 		}
 		sum.Rows++
+		line, _ := cr.FieldPos(0)
 		day, derr := calendar.ParseBytes(bytesOf(rec[0]))
 		if derr != nil {
 			want := "an ISO 8601 date YYYY-MM-DD"
