@@ -197,4 +197,3 @@ func checkSameValues(t *testing.T, a, b []*Station) {
 		}
 	}
 }
-
