@@ -232,7 +232,17 @@ func (a *Analyzer) Analyze(s *series.Station, users []UserEvent, o Options) (Res
 		res.Events[k].AntecedentDryness = dry(s.Index(res.Events[k].Start))
 	}
 
-	// Responses.
+	// Responses, stored in one block shared by the events.
+	nv := 0
+	for _, v := range o.Responses {
+		if s.Var(v.Name) != nil {
+			nv++
+		}
+	}
+	block := make([]Response, 0, nv*len(res.Events))
+	for k := range res.Events {
+		res.Events[k].Responses = block[k*nv : k*nv : (k+1)*nv]
+	}
 	for _, v := range o.Responses {
 		x := s.Var(v.Name)
 		if x == nil {

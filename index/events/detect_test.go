@@ -48,7 +48,7 @@ func TestHeatWavesTiny(t *testing.T) {
 			name: "min 5 gap 1", minDur: 5, maxGap: 1,
 			want: []HeatWave{
 				{Span: Span{4, 8}, Peak: 6, MaxIntensity: 5.5, MeanIntensity: 4.14, CumIntensity: 20.7},
-				{Span: Span{11, 15}, Peak: 13, MaxIntensity: 6, MeanIntensity: 4, CumIntensity: 20},
+				{Span: Span{11, 15}, Peak: 13, MaxIntensity: 6, MeanIntensity: 4.4, CumIntensity: 22},
 			},
 		},
 	} {
