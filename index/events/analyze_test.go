@@ -267,7 +267,7 @@ func TestAnalyzePlantedFlow(t *testing.T) {
 			"check-2011-01-01": 0.054794520548, // 20/365
 			"check-2012-07-20": 0.043835616438, // 16/365
 			"check-2013-06-01": 0.043835616438,
-			"check-2009-06-01": nan, // the window starts before the record
+			"check-2009-06-01": nan,            // the window starts before the record
 			"check-2016-03-10": 0.019178082192, // 7/365
 		}},
 		{Index, map[string]float64{

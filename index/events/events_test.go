@@ -98,4 +98,3 @@ func TestPercentile(t *testing.T) {
 		})
 	}
 }
-
