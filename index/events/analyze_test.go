@@ -339,6 +339,7 @@ func TestValidate(t *testing.T) {
 		{"zero", func(o *Options) { *o = Options{} }, ""},
 		{"percentile", func(o *Options) { o.Heat.Percentile = 100 }, "heat.percentile: want a percentile strictly between 0 and 100, got 100"},
 		{"smooth even", func(o *Options) { o.Climate.Smooth = 30 }, "climate.smooth: want an odd number of days up to 365 (or 0 for 31), got 30"},
+		{"year fraction", func(o *Options) { o.Climate.YearFraction = 2 }, "climate.year_fraction: want a number in [0, 1], got 2"},
 		{"years", func(o *Options) { o.Climate.FirstYear, o.Climate.LastYear = 2005, 2001 }, "climate.last_year: want a year >= first_year = 2005, got 2001"},
 		{"threshold", func(o *Options) { o.Drought.Threshold = "monthly" }, `drought.threshold: want "fixed" or "daily", got "monthly"`},
 		{"pool", func(o *Options) { o.Drought.Pool = -1 }, "drought.pool: want days >= 0, got -1"},

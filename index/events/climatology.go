@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"strconv"
 
 	"rebound/index/calendar"
 	"rebound/index/series"
@@ -17,10 +18,13 @@ type Climate struct {
 	// both included. 0 means the first (last) year of the record.
 	FirstYear, LastYear int
 	// MinYears is the fewest reference-period years with data a
-	// climatology needs; a year has data when at least half of its days
-	// have a value. 0 means 5. (Hobday et al. 2016 recommend 30 years;
-	// shorter periods give noisier percentiles.)
+	// climatology needs. 0 means 5. (Hobday et al. 2016 recommend 30
+	// years; shorter periods give noisier percentiles.)
 	MinYears int
+	// YearFraction is the fraction of a calendar year's days that must
+	// have a value for the year to count towards MinYears. 0 means 0.5,
+	// low enough for records kept only from April to October.
+	YearFraction float64
 	// HalfWidth is w, the half-width in days of the window pooled around
 	// each calendar day, so that 2w+1 days are pooled. 0 means 5 (an 11-day
 	// window).
@@ -34,6 +38,9 @@ type Climate struct {
 func (c Climate) withDefaults() Climate {
 	if c.MinYears == 0 {
 		c.MinYears = 5
+	}
+	if c.YearFraction == 0 {
+		c.YearFraction = 0.5
 	}
 	if c.HalfWidth == 0 {
 		c.HalfWidth = 5
@@ -54,6 +61,8 @@ func (c Climate) validate(prefix string) error {
 		return fmt.Errorf("%slast_year: want a year >= first_year = %d, got %d", prefix, c.FirstYear, c.LastYear)
 	case c.MinYears < 0:
 		return fmt.Errorf("%smin_years: want >= 0, got %d", prefix, c.MinYears)
+	case !(c.YearFraction >= 0 && c.YearFraction <= 1):
+		return fmt.Errorf("%syear_fraction: want a number in [0, 1], got %v", prefix, c.YearFraction)
 	case c.HalfWidth < 0 || c.HalfWidth > 60:
 		return fmt.Errorf("%shalf_width: want 0..60 days, got %d", prefix, c.HalfWidth)
 	case c.Smooth < 0 || c.Smooth > 365 || c.Smooth > 0 && c.Smooth%2 == 0:
@@ -134,22 +143,14 @@ func (c Climate) reference(x []float64, start calendar.Date) (refPeriod, error) 
 	if r.last == 0 {
 		r.last = (start + calendar.Date(n-1)).Year()
 	}
-	for y := max(r.first, start.Year()); y <= r.last; y++ {
-		lo, hi := yearBounds(start, n, y, y)
-		if lo == hi {
-			break
-		}
-		days := 365
-		if calendar.IsLeap(y) {
-			days = 366
-		}
-		if 2*series.Present(x[lo:hi]) >= days {
+	for _, y := range series.Coverage(start, x, false) {
+		if y.Year >= r.first && y.Year <= r.last && y.Fraction() >= c.YearFraction {
 			r.years++
 		}
 	}
 	if r.years < c.MinYears {
-		return r, fmt.Errorf("%w: %d years of %d–%d have half their days or more, want at least min_years = %d",
-			ErrShortReference, r.years, r.first, r.last, c.MinYears)
+		return r, fmt.Errorf("%w: %d years of %d–%d have %s%% of their days or more, want at least min_years = %d",
+			ErrShortReference, r.years, r.first, r.last, strconv.FormatFloat(100*c.YearFraction, 'g', 4, 64), c.MinYears)
 	}
 	r.lo, r.hi = yearBounds(start, n, r.first, r.last)
 	return r, nil

@@ -160,7 +160,8 @@ func TestClimatologyShortReference(t *testing.T) {
 	}{
 		{Climate{MinYears: 2}, 2, false},
 		{Climate{MinYears: 3}, 2, true},
-		{Climate{}, 2, true}, // default 5
+		{Climate{}, 2, true},                                // default 5
+		{Climate{MinYears: 3, YearFraction: 0.4}, 3, false}, // 165/365 = 0.45 of 2002
 		{Climate{FirstYear: 2003, LastYear: 2003, MinYears: 1}, 1, false},
 		{Climate{FirstYear: 1990, LastYear: 1995, MinYears: 1}, 0, true},
 	} {
