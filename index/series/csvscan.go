@@ -86,21 +86,11 @@ type quoteProblem struct {
 // split splits rec (without its line end) into fields. It reports the first
 // quoting problem, if any; fields before it are valid.
 func (fs *fields) split(rec []byte) *quoteProblem {
-	fs.f, fs.off = fs.f[:0], fs.off[:0]
 	if bytes.IndexByte(rec, '"') < 0 {
-		start := 0
-		for {
-			i := bytes.IndexByte(rec[start:], ',')
-			if i < 0 {
-				fs.f = append(fs.f, rec[start:])
-				fs.off = append(fs.off, start)
-				return nil
-			}
-			fs.f = append(fs.f, rec[start:start+i])
-			fs.off = append(fs.off, start)
-			start += i + 1
-		}
+		fs.splitPlain(rec)
+		return nil
 	}
+	fs.f, fs.off = fs.f[:0], fs.off[:0]
 	if cap(fs.scratch) < len(rec) {
 		fs.scratch = make([]byte, 0, len(rec))
 	}
@@ -170,6 +160,23 @@ func (fs *fields) split(rec []byte) *quoteProblem {
 			return nil
 		}
 		i++ // past the comma
+	}
+}
+
+// splitPlain splits rec, which holds no double quote, at its commas.
+func (fs *fields) splitPlain(rec []byte) {
+	fs.f, fs.off = fs.f[:0], fs.off[:0]
+	start := 0
+	for {
+		i := bytes.IndexByte(rec[start:], ',')
+		if i < 0 {
+			fs.f = append(fs.f, rec[start:])
+			fs.off = append(fs.off, start)
+			return
+		}
+		fs.f = append(fs.f, rec[start:start+i])
+		fs.off = append(fs.off, start)
+		start += i + 1
 	}
 }
 

@@ -210,6 +210,9 @@ type splitter struct {
 	cur    []byte // raw station field of the current block's last record
 	seen   map[string]int
 	prev   string
+	// plainEnd is the offset of the first double quote in buf at or after
+	// pos, or n when there is none: lines before it need no quote handling.
+	plainEnd int
 	pool   chan []byte
 	done   bool
 }
@@ -233,6 +236,7 @@ func (s *splitter) fill() {
 		s.pos -= s.bstart
 		s.bstart = 0
 	}
+	s.plainEnd = 0
 	for {
 		k, err := s.r.Read(s.buf[s.n:min(len(s.buf), s.n+readChunk)])
 		s.n += k
@@ -253,7 +257,19 @@ func (s *splitter) fill() {
 // at is the record's offset in s.buf, valid until the next call.
 func (s *splitter) record() (rec []byte, at, breaks int, prob *ParseError, ok bool) {
 	for {
-		n, adv, br, more := scanRecord(s.buf[s.pos:s.n], s.eof)
+		var n, adv, br int
+		more := false
+		if s.pos >= s.plainEnd {
+			s.plainEnd = s.n
+			if q := bytes.IndexByte(s.buf[s.pos:s.n], '"'); q >= 0 {
+				s.plainEnd = s.pos + q
+			}
+		}
+		if i := bytes.IndexByte(s.buf[s.pos:s.plainEnd], '\n'); i >= 0 {
+			n, adv = i, i+1 // a line without quotes
+		} else {
+			n, adv, br, more = scanRecord(s.buf[s.pos:s.n], s.eof)
+		}
 		if more {
 			if s.n-s.pos >= maxRecord {
 				return nil, s.pos, 0, s.rd.errorf(s.line, 1, "", ErrTooLong,
@@ -396,6 +412,7 @@ func (s *splitter) cut(p int) *block {
 	s.n -= p
 	s.pos -= p
 	s.bstart = 0
+	s.plainEnd = 0
 	return b
 }
 
@@ -436,6 +453,10 @@ type worker struct {
 	skipped map[string]int
 	nrows   int
 	bad     int
+	// lastDate is the date field of the last row and lastDay its Date:
+	// rows of several variables share a date.
+	lastDate []byte
+	lastDay  calendar.Date
 }
 
 func (w *worker) problem(p *ParseError) {
@@ -450,14 +471,22 @@ func (w *worker) parse(b *block) *Station {
 	w.rows, w.probs, w.skipped, w.nrows, w.bad = w.rows[:0], w.probs[:0], nil, 0, 0
 	data, pos, line := b.data, 0, b.line
 	for pos < len(data) && !w.full() {
-		n, adv, br, _ := scanRecord(data[pos:], true)
-		rec := data[pos : pos+n]
+		rest := data[pos:]
+		n, adv, br := len(rest), len(rest), 0
+		if i := bytes.IndexByte(rest, '\n'); i >= 0 {
+			n, adv = i, i+1
+		}
+		plain := bytes.IndexByte(rest[:n], '"') < 0
+		if !plain {
+			n, adv, br, _ = scanRecord(rest, true)
+		}
+		rec := rest[:n]
 		if len(rec) > 0 && rec[len(rec)-1] == '\r' {
 			rec = rec[:len(rec)-1]
 		}
 		if len(rec) > 0 {
 			w.nrows++
-			w.record(rec, line, line-b.line)
+			w.record(b, rec, plain, br > 0, line)
 		}
 		pos += adv
 		line += 1 + br
@@ -469,9 +498,11 @@ func (w *worker) parse(b *block) *Station {
 }
 
 // record parses one record into w.rows or a problem.
-func (w *worker) record(rec []byte, line, rel int) {
+func (w *worker) record(b *block, rec []byte, plain, multiline bool, line int) {
 	rd, lay := w.rd, &w.rd.lay
-	if q := w.fs.split(rec); q != nil {
+	if plain {
+		w.fs.splitPlain(rec)
+	} else if q := w.fs.split(rec); q != nil {
 		l, c := lineCol(rec, line, q.off)
 		w.problem(rd.errorf(l, c, lay.name(q.field), ErrQuote, q.msg))
 		return
@@ -512,7 +543,13 @@ func (w *worker) record(rec []byte, line, rel int) {
 		w.skipped[string(vname)]++
 		return
 	}
-	day, err := calendar.ParseBytes(f[lay.date])
+	day, err := w.lastDay, error(nil)
+	if !bytes.Equal(f[lay.date], w.lastDate) {
+		day, err = calendar.ParseBytes(f[lay.date])
+		if err == nil {
+			w.lastDate, w.lastDay = append(w.lastDate[:0], f[lay.date]...), day
+		}
+	}
 	if err != nil {
 		l, c := pos(lay.date)
 		want := "an ISO 8601 date YYYY-MM-DD"
@@ -522,8 +559,11 @@ func (w *worker) record(rec []byte, line, rel int) {
 		w.problem(rd.errorf(l, c, colDate, ErrDate, wantGot(want, f[lay.date])))
 		return
 	}
-	_, dcol := pos(lay.date)
-	r := row{day: day, line: int32(rel), col: int32(dcol), v: uint8(v), val: math.NaN()}
+	dcol := w.fs.off[lay.date] + 1
+	if multiline {
+		_, dcol = pos(lay.date)
+	}
+	r := row{day: day, line: int32(line - b.line), col: int32(dcol), v: uint8(v), val: math.NaN()}
 	spec := &rd.vars[v]
 	val := f[lay.value]
 	if isMissing(val) {
