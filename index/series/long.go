@@ -213,8 +213,8 @@ type splitter struct {
 	// plainEnd is the offset of the first double quote in buf at or after
 	// pos, or n when there is none: lines before it need no quote handling.
 	plainEnd int
-	pool   chan []byte
-	done   bool
+	pool     chan []byte
+	done     bool
 }
 
 const (
