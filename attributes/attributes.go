@@ -56,6 +56,12 @@ func (t *Table) Station(id string) (*Station, bool) {
 	return &t.Stations[i], true
 }
 
+// Index returns the position of station id in Stations.
+func (t *Table) Index(id string) (int, bool) {
+	i, ok := t.byID[id]
+	return i, ok
+}
+
 // Column returns the values of numeric column name, one per station in
 // table order, NaN where blank.
 func (t *Table) Column(name string) ([]float64, bool) {

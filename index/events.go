@@ -5,7 +5,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"math"
 	"os"
 	"strings"
 
@@ -193,6 +192,3 @@ func (in interner) get(s string) string {
 	in[s] = s
 	return s
 }
-
-// validKind returns nil when x is a usable number (not NaN).
-func present(x float64) bool { return !math.IsNaN(x) }

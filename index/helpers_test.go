@@ -1,0 +1,5 @@
+package index
+
+import "strconv"
+
+func strconvItoa(n int) string { return strconv.Itoa(n) }

@@ -1,0 +1,286 @@
+package index
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"rebound/attributes"
+	"rebound/attributes/tabular"
+	"rebound/config"
+	"rebound/index/robust"
+	"rebound/index/survival"
+)
+
+// Raw holds the raw indicator values of every station, before
+// normalisation.
+type Raw struct {
+	// Stations are the station identifiers, in attribute-table order;
+	// Names and Groups are their names and peer groups.
+	Stations []string
+	Names    []string
+	Groups   []string
+	// Indicators are the definitions, in configuration order.
+	Indicators []config.Indicator
+	// Values[i][j] is indicator j at station i, NaN when undefined.
+	Values [][]float64
+	// Notes[i][j] says why a value is undefined, or how it was obtained
+	// when that needs saying (a restricted mean instead of a median); ""
+	// otherwise.
+	Notes [][]string
+	// Fallback[i][j] is true when a recovery value is the restricted mean
+	// survival time because the Kaplan–Meier median is undefined.
+	Fallback [][]bool
+	// Events is the number of distinct events per station.
+	Events []int
+	// Warnings are facts the reader of the results should know.
+	Warnings []error
+}
+
+// Warning is a note about one station and, optionally, one indicator.
+type Warning struct {
+	Station   string
+	Indicator string
+	Msg       string
+}
+
+func (w *Warning) Error() string {
+	switch {
+	case w.Station == "" && w.Indicator == "":
+		return w.Msg
+	case w.Station == "":
+		return w.Indicator + ": " + w.Msg
+	case w.Indicator == "":
+		return "station " + w.Station + ": " + w.Msg
+	}
+	return "station " + w.Station + ": " + w.Indicator + ": " + w.Msg
+}
+
+// Compute derives the raw indicator values for every station of the
+// attribute table from the events and the attributes. It checks what only
+// the two tables together can show (events for unknown stations, duplicate
+// rows, dryness outside its scale) and returns every such problem; the
+// result is usable only when there are none. events may be nil when no
+// indicator is computed from events.
+func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config) (*Raw, []error) {
+	var errs tabular.List
+	n := len(attrs.Stations)
+	raw := &Raw{
+		Stations:   make([]string, n),
+		Names:      make([]string, n),
+		Groups:     make([]string, n),
+		Indicators: cfg.Indicators,
+		Values:     make([][]float64, n),
+		Notes:      make([][]string, n),
+		Fallback:   make([][]bool, n),
+		Events:     make([]int, n),
+	}
+	for i, s := range attrs.Stations {
+		raw.Stations[i], raw.Names[i], raw.Groups[i] = s.ID, s.Name, s.Group
+		raw.Values[i] = make([]float64, len(cfg.Indicators))
+		raw.Notes[i] = make([]string, len(cfg.Indicators))
+		raw.Fallback[i] = make([]bool, len(cfg.Indicators))
+	}
+
+	// Events by station, with cross-table checks.
+	byStation := make([][]*Event, n)
+	if events != nil {
+		type rowKey struct{ station, event, variable string }
+		first := map[rowKey]int{}
+		unknownVar := map[string]int{}
+		for k := range events.Events {
+			e := &events.Events[k]
+			at := func(column, format string, args ...any) {
+				errs.Add(&tabular.ParseError{File: events.File, Line: e.Line, Column: column, Err: fmt.Errorf(format, args...)})
+			}
+			idx, ok := attrs.Index(e.Station)
+			if !ok {
+				at("station", "station %q is not in the attribute table %s", e.Station, attrs.File)
+				continue
+			}
+			key := rowKey{e.Station, e.ID, e.Variable}
+			if l, dup := first[key]; dup {
+				at("event", "duplicate row for station %q, event %q, variable %q (first on line %d)", e.Station, e.ID, e.Variable, l)
+				continue
+			}
+			first[key] = e.Line
+			if cfg.Memory.Dryness == config.Fraction && !math.IsNaN(e.Dryness) && (e.Dryness < 0 || e.Dryness > 1) {
+				at("antecedent_dryness", "want a fraction in [0, 1] (memory.dryness = %q), got %g", cfg.Memory.Dryness, e.Dryness)
+			}
+			if _, ok := cfg.Variable(e.Variable); !ok {
+				unknownVar[e.Variable]++
+			}
+			byStation[idx] = append(byStation[idx], e)
+		}
+		for _, v := range sortedKeys(unknownVar) {
+			raw.Warnings = append(raw.Warnings, &Warning{Msg: fmt.Sprintf("%s: variable %q (%d rows) has no [[variable]] table; only indicators that take every variable use it", events.File, v, unknownVar[v])})
+		}
+	}
+
+	for j, ind := range cfg.Indicators {
+		if ind.Measure == config.Attribute {
+			if _, ok := attrs.Column(ind.Attribute); !ok {
+				errs.Add(&config.Error{File: cfg.File, Key: fmt.Sprintf("indicator[%d].attribute", j+1),
+					Msg: fmt.Sprintf("%s has no numeric column %q; it has %s", attrs.File, ind.Attribute, strings.Join(attrs.Columns, ", "))})
+			}
+		}
+	}
+	var recordYears []float64
+	if col, ok := attrs.Column(cfg.Inputs.RecordYearsColumn); ok {
+		recordYears = col
+	}
+	if errs.Len() > 0 {
+		return nil, errs.Errors()
+	}
+
+	for i := range n {
+		evs := byStation[i]
+		raw.Events[i] = countDistinct(evs)
+		for j, ind := range cfg.Indicators {
+			v, note, fb := indicator(ind, evs, attrs, i, recordYears, cfg)
+			raw.Values[i][j], raw.Notes[i][j], raw.Fallback[i][j] = v, note, fb
+		}
+	}
+	return raw, nil
+}
+
+// indicator computes indicator ind at station i from its events evs.
+func indicator(ind config.Indicator, evs []*Event, attrs *attributes.Table, i int, recordYears []float64, cfg *config.Config) (v float64, note string, fallback bool) {
+	nan := math.NaN()
+	if ind.Measure == config.Attribute {
+		col, _ := attrs.Column(ind.Attribute)
+		return transform(col[i], ind.Transform)
+	}
+	sel := filter(evs, ind)
+	switch ind.Measure {
+	case config.Frequency:
+		years := nan
+		if recordYears != nil && recordYears[i] > 0 {
+			years = recordYears[i]
+		} else if cfg.Inputs.RecordYears > 0 {
+			years = cfg.Inputs.RecordYears
+		}
+		if math.IsNaN(years) {
+			return nan, fmt.Sprintf("no length of record (attribute %q blank and inputs.record_years unset)", cfg.Inputs.RecordYearsColumn), false
+		}
+		return float64(countDistinct(sel)) / years, "", false
+	}
+	if len(sel) == 0 {
+		return nan, "no " + describeFilter(ind) + " events", false
+	}
+	switch ind.Measure {
+	case config.Magnitude:
+		sign := harmfulSign(cfg, ind.Variables[0])
+		mags := make([]float64, len(sel))
+		for k, e := range sel {
+			mags[k] = sign * e.PeakDeparture
+		}
+		return robust.Median(mags), "", false
+	case config.Recovery:
+		times := make([]float64, len(sel))
+		obs := make([]bool, len(sel))
+		for k, e := range sel {
+			times[k], obs[k] = e.RecoveryDays, e.Recovered
+		}
+		c := survival.KaplanMeier(times, obs)
+		if m, ok := c.Median(); ok {
+			return m, "", false
+		}
+		censored := 0
+		for _, o := range obs {
+			if !o {
+				censored++
+			}
+		}
+		return c.RMST(c.MaxTime), fmt.Sprintf("Kaplan–Meier median undefined (%d of %d events not recovered); restricted mean to %g days used", censored, len(sel), c.MaxTime), true
+	case config.MemoryM:
+		sign := harmfulSign(cfg, ind.Variables[0])
+		var x, y []float64
+		for _, e := range sel {
+			if !math.IsNaN(e.Dryness) {
+				x = append(x, e.Dryness)
+				y = append(y, sign*e.PeakDeparture)
+			}
+		}
+		if len(x) < cfg.Memory.MinEvents {
+			return nan, fmt.Sprintf("%d events with known antecedent dryness, fewer than memory.min_events = %d", len(x), cfg.Memory.MinEvents), false
+		}
+		slope, ok := robust.TheilSen(x, y)
+		if !ok {
+			return nan, "antecedent dryness is the same for every event; no slope", false
+		}
+		return slope, "", false
+	}
+	return nan, "unknown measure " + string(ind.Measure), false
+}
+
+func transform(x float64, t config.Transform) (float64, string, bool) {
+	if math.IsNaN(x) {
+		return x, "attribute blank", false
+	}
+	switch t {
+	case config.Log:
+		if x <= 0 {
+			return math.NaN(), fmt.Sprintf("log transform of %g is undefined", x), false
+		}
+		return math.Log(x), "", false
+	case config.Sqrt:
+		if x < 0 {
+			return math.NaN(), fmt.Sprintf("square root of %g is undefined", x), false
+		}
+		return math.Sqrt(x), "", false
+	}
+	return x, "", false
+}
+
+func harmfulSign(cfg *config.Config, variable string) float64 {
+	v, _ := cfg.Variable(variable)
+	return v.Harmful.Sign()
+}
+
+func filter(evs []*Event, ind config.Indicator) []*Event {
+	if len(ind.Kinds) == 0 && len(ind.Variables) == 0 {
+		return evs
+	}
+	var out []*Event
+	for _, e := range evs {
+		if (len(ind.Kinds) == 0 || slices.Contains(ind.Kinds, e.Kind)) &&
+			(len(ind.Variables) == 0 || slices.Contains(ind.Variables, e.Variable)) {
+			out = append(out, e)
+		}
+	}
+	return out
+}
+
+func describeFilter(ind config.Indicator) string {
+	var parts []string
+	if len(ind.Kinds) > 0 {
+		parts = append(parts, strings.Join(ind.Kinds, "/"))
+	}
+	if len(ind.Variables) > 0 {
+		parts = append(parts, strings.Join(ind.Variables, "/"))
+	}
+	if len(parts) == 0 {
+		return "recorded"
+	}
+	return strings.Join(parts, " ")
+}
+
+// countDistinct counts distinct event identifiers.
+func countDistinct(evs []*Event) int {
+	seen := make(map[string]bool, len(evs))
+	for _, e := range evs {
+		seen[e.ID] = true
+	}
+	return len(seen)
+}
+
+func sortedKeys[V any](m map[string]V) []string {
+	keys := make([]string, 0, len(m))
+	for k := range m {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	return keys
+}
