@@ -117,4 +117,3 @@ func BenchmarkKaplanMeier(b *testing.B) {
 		})
 	}
 }
-
