@@ -124,8 +124,8 @@ func MonteCarlo(m Model, s Settings) (*MonteCarloResult, error) {
 		counter = 4
 	}
 	if need := counter * int64(p.n) * int64(p.n); need > s.maxMemory() {
-		return nil, fmt.Errorf("sensitivity: %d stations need %d MiB of rank histograms, more than the %d MiB allowed (MaxMemory)",
-			p.n, need>>20, s.maxMemory()>>20)
+		return nil, fmt.Errorf("sensitivity: %d stations need %s of rank histograms, more than the %s allowed (MaxMemory)",
+			p.n, byteSize(need), byteSize(s.maxMemory()))
 	}
 	if counter == 2 {
 		return monteCarlo[uint16](p, ws, s, samples)
@@ -214,10 +214,7 @@ func firstError(workers []*mcWorker) error {
 func summarize[C uint16 | uint32](count []C, samples, topN int, base int32, defined bool) StationRanks {
 	n := len(count)
 	sr := StationRanks{Base: base}
-	// Type 1 percentiles: the first rank whose cumulative count reaches
-	// ⌈p·samples/100⌉, in integer arithmetic.
-	need := func(pct int) int { return (pct*samples + 99) / 100 }
-	n05, n50, n95 := need(5), need(50), need(95)
+	n05, n50, n95 := percentileCount(5, samples), percentileCount(50, samples), percentileCount(95, samples)
 	var cum, top, bottom int
 	var sum float64
 	for i, c := range count {
@@ -280,9 +277,14 @@ func summarizeAgreement(x []float64) Agreement {
 	return Agreement{
 		Mean: stat.Mean(x, nil),
 		Min:  sorted[0],
-		P05:  stat.Quantile(0.05, stat.Empirical, sorted, nil),
+		P05:  sorted[percentileCount(5, len(sorted))-1],
 	}
 }
+
+// percentileCount returns ⌈pct·n/100⌉, in integer arithmetic: the type 1
+// pct-th percentile of n sorted values is the one at that 1-based
+// position.
+func percentileCount(pct, n int) int { return (pct*n + 99) / 100 }
 
 // agreementBase holds what the rank correlations with the base ranking
 // need, computed once: the stations with a defined base composite, their
@@ -402,4 +404,15 @@ func (w *mcWorker) tauB(ranks []int32) float64 {
 		w.ky[t] = ranks[st]
 	}
 	return w.kendall.TauB(a.ranks, w.ky)
+}
+
+// byteSize formats a number of bytes for a message.
+func byteSize(b int64) string {
+	switch {
+	case b >= 1<<30:
+		return fmt.Sprintf("%.1f GiB", float64(b)/(1<<30))
+	case b >= 1<<20:
+		return fmt.Sprintf("%.1f MiB", float64(b)/(1<<20))
+	}
+	return fmt.Sprintf("%d bytes", b)
 }

@@ -38,9 +38,10 @@ type SobolSettings struct {
 // SobolResult holds first-order and total Sobol indices. First, Total and
 // the interval bounds hold Outputs × Inputs values in row-major order: the
 // index of input i for output o is at [o*Inputs+i] (see FirstOrder and
-// TotalOrder). An index is NaN when its output has zero variance; an
-// interval bound is NaN when the output was not bootstrapped or a replicate
-// had zero variance.
+// TotalOrder). An index is NaN when its output is constant: its standard
+// deviation is below 1e-11 times its root mean square, where rounding
+// errors would decide the indices. An interval bound is NaN when the output
+// was not bootstrapped or a replicate was constant.
 type SobolResult struct {
 	Inputs, Outputs int
 	N               int // rows of each base sample matrix
@@ -178,6 +179,11 @@ type sobolEstimator struct {
 	rows [][]float64
 }
 
+// minRelSD is the relative standard deviation below which an output counts
+// as constant. Composites that are mathematically constant vary by a few
+// units in the last place, 1e-16 relative.
+const minRelSD = 1e-11
+
 // rowsPerBlock bounds the memory of one block of model outputs to about
 // 32 MiB.
 func rowsPerBlock(evals, m, workers int) int {
@@ -296,13 +302,19 @@ func (e *sobolEstimator) accumulate(o int, out []float64, bootIndex int) {
 	}
 }
 
-// indices turns sums over n rows into the variance and the indices.
-func indices(first, total []float64, sa, sb, qa, qb float64, n int) (mean, v float64) {
+// indices turns sums over n rows of outputs shifted by c into the mean and
+// variance and, in place, the indices. The indices are NaN when the
+// standard deviation is below minRelSD times the root mean square output:
+// a constant output whose rounding errors would otherwise give arbitrary
+// indices.
+func indices(first, total []float64, sa, sb, qa, qb, c float64, n int) (mean, v float64) {
 	nn := float64(2 * n)
-	mean = (sa + sb) / nn
-	v = (qa+qb)/nn - mean*mean
+	shifted := (sa + sb) / nn
+	v = (qa+qb)/nn - shifted*shifted
+	mean = shifted + c
+	defined := v > minRelSD*minRelSD*(v+mean*mean)
 	for i := range first {
-		if v > 0 {
+		if defined {
 			first[i] = first[i] / float64(n) / v
 			total[i] = total[i] / nn / v
 		} else {
@@ -323,8 +335,8 @@ func (e *sobolEstimator) result(level float64, B int) *SobolResult {
 		Level: level, Bootstrap: B,
 	}
 	for o := range m {
-		mean, v := indices(e.first[o*k:(o+1)*k], e.total[o*k:(o+1)*k], e.sa[o], e.sb[o], e.qa[o], e.qb[o], e.n)
-		res.Mean[o] = mean + e.shift[o]
+		mean, v := indices(e.first[o*k:(o+1)*k], e.total[o*k:(o+1)*k], e.sa[o], e.sb[o], e.qa[o], e.qb[o], e.shift[o], e.n)
+		res.Mean[o] = mean
 		res.Variance[o] = v
 	}
 	return res
@@ -368,7 +380,7 @@ func (e *sobolEstimator) bootstrap(res *SobolResult, boot []int, B int, level fl
 							total[i] += (a - ab) * (a - ab)
 						}
 					}
-					indices(first, total, sa, sb, qa, qb, e.n)
+					indices(first, total, sa, sb, qa, qb, e.shift[o], e.n)
 					copy(reps[b*2*k:], first)
 					copy(reps[b*2*k+k:], total)
 				}
