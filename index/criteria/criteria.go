@@ -160,8 +160,11 @@ func SevenDay(dst, x []float64) []float64 {
 	if len(dst) != len(x) {
 		panic("criteria: slice length mismatch")
 	}
-	// The window sum is recomputed from the values, not carried as a
-	// running sum, so that rounding never drifts over a long record.
+	// Each window is summed afresh with Neumaier's compensated summation
+	// (Neumaier 1974, ZAMM 54:39–51), not carried as a running sum: a mean
+	// of decimal readings that equals a criterion exactly (17.26, …, 18.51
+	// averaging 18.00) must not come out a rounding error above it, and
+	// rounding must not drift over a long record.
 	run := 0 // consecutive non-NaN values ending at i
 	for i, v := range x {
 		if math.IsNaN(v) {
@@ -173,11 +176,23 @@ func SevenDay(dst, x []float64) []float64 {
 			dst[i] = math.NaN()
 			continue
 		}
-		sum := 0.0
-		for _, w := range x[i-Window+1 : i+1] {
-			sum += w
-		}
-		dst[i] = sum / Window
+		dst[i] = compensatedSum(x[i-Window+1:i+1]) / Window
 	}
 	return dst
+}
+
+// compensatedSum returns the sum of x by Neumaier's variant of Kahan
+// summation, which keeps the rounding error of each addition.
+func compensatedSum(x []float64) float64 {
+	var sum, c float64
+	for _, v := range x {
+		t := sum + v
+		if math.Abs(sum) >= math.Abs(v) {
+			c += (sum - t) + v
+		} else {
+			c += (v - t) + sum
+		}
+		sum = t
+	}
+	return sum + c
 }

@@ -133,26 +133,36 @@ func TestSevenDay(t *testing.T) {
 		name string
 		x    []float64
 		want []float64
+		tol  float64
 	}{
 		{
 			// Hand working, confirmed with numpy 1.24.2 (testdata/README.md).
-			name: "daily_max10.csv",
-			x:    readColumn(t, "testdata/daily_max10.csv"),
+			name: "daily_max10.csv", tol: 1e-10,
+			x: readColumn(t, "testdata/daily_max10.csv"),
 			want: []float64{nan, nan, nan, nan, nan, nan,
 				17.1428571429, 17.5428571429, 17.7, 17.5142857143},
 		},
 		{
 			// By hand: every window that holds the missing day is undefined.
-			name: "missing day",
-			x:    []float64{1, 2, 3, 4, 5, 6, 7, nan, 1, 1, 1, 1, 1, 1, 1, 8},
+			name: "missing day", tol: 1e-10,
+			x: []float64{1, 2, 3, 4, 5, 6, 7, nan, 1, 1, 1, 1, 1, 1, 1, 8},
 			want: []float64{nan, nan, nan, nan, nan, nan, 4,
 				nan, nan, nan, nan, nan, nan, nan, 1, 2},
 		},
-		{name: "short", x: []float64{1, 2, 3}, want: []float64{nan, nan, nan}},
+		{name: "short", x: []float64{1, 2, 3}, want: []float64{nan, nan, nan}, tol: 1e-10},
+		{
+			// Invented readings whose mean is exactly 18 (sum 126.00, by
+			// hand); a plain left-to-right float64 sum gives
+			// 18.000000000000004, which would fail a criterion of 18.
+			name: "decimal mean on a criterion",
+			x:    []float64{17.26, 17.37, 17.66, 18.23, 18.44, 18.53, 18.51},
+			want: []float64{nan, nan, nan, nan, nan, nan, 18},
+			tol:  0,
+		},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			got := SevenDay(make([]float64, len(tc.x)), tc.x)
-			if !equalNaN(got, tc.want, 1e-10) {
+			if !equalNaN(got, tc.want, tc.tol) {
 				t.Errorf("got %v, want %v", got, tc.want)
 			}
 		})
