@@ -1,10 +1,6 @@
 package clustering
 
-import (
-	"math"
-
-	"gonum.org/v1/gonum/mat"
-)
+import "gonum.org/v1/gonum/mat"
 
 // Condensed holds the pairwise distances of N items: a symmetric matrix with
 // a zero diagonal, stored as its upper triangle row by row. The distance
@@ -66,12 +62,7 @@ func Pairwise(x mat.Matrix) Condensed {
 	// Rows near the top have the most pairs, so hand out small pieces.
 	chunks(n, 16, workerCount(0), func(_, lo, hi int) {
 		for i := lo; i < hi; i++ {
-			xi := data[i*d : (i+1)*d]
-			out := c.D[rs[i]+i+1 : rs[i]+n]
-			for j := range out {
-				k := (i + 1 + j) * d
-				out[j] = math.Sqrt(sqDist(xi, data[k:k+d]))
-			}
+			distances(c.D[rs[i]+i+1:rs[i]+n], data[i*d:(i+1)*d], data[(i+1)*d:])
 		}
 	})
 	return c

@@ -70,3 +70,40 @@ func BenchmarkLinkage(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkKMeans: k = 8, 10 restarts, 20,000 × 10, as scikit-learn 1.2.1
+// KMeans(n_clusters=8, n_init=10) was timed on the project's 2-core
+// machine: 0.127 s with 1 thread, 0.242 s with 2.
+func BenchmarkKMeans(b *testing.B) {
+	for _, n := range []int{1000, 5000, 20000} {
+		x := mixture(n, 10, 8, 1)
+		for _, w := range []int{1, 2} {
+			b.Run(fmt.Sprintf("%d/workers=%d", n, w), func(b *testing.B) {
+				b.ReportAllocs()
+				for b.Loop() {
+					if _, err := (KMeans{K: 8, Restarts: 10, Seed: 1, Workers: w}).Cluster(x); err != nil {
+						b.Fatal(err)
+					}
+				}
+			})
+		}
+	}
+}
+
+// BenchmarkSilhouette: scikit-learn 1.2.1 silhouette_score took
+// 0.013/0.21/2.1/3.7 s at 1k/5k/10k/20k rows with 1 thread.
+func BenchmarkSilhouette(b *testing.B) {
+	for _, n := range []int{1000, 5000, 10000, 20000} {
+		x := mixture(n, 10, 8, 1)
+		r, err := KMeans{K: 8, Restarts: 2, Seed: 1}.Cluster(x)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(fmt.Sprint(n), func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				Silhouette(x, r.Labels, nil)
+			}
+		})
+	}
+}

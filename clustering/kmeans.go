@@ -341,14 +341,15 @@ func (s *kmState) distTo(dst, near []float64, c int, fresh bool) float64 {
 	d := s.d
 	xc := s.x[c*d : (c+1)*d]
 	chunks(s.n, kmBlock, s.workers, func(b, lo, hi int) {
+		out := dst[lo:hi]
+		sqDistances(out, xc, s.x[lo*d:hi*d])
 		var t float64
-		for i := lo; i < hi; i++ {
-			v := sqDist(s.x[i*d:(i+1)*d], xc)
+		for j, v := range out {
 			if !fresh {
-				v = min(v, near[i])
+				v = min(v, near[lo+j])
+				out[j] = v
 			}
-			dst[i] = v
-			t += s.weight(i) * v
+			t += s.weight(lo+j) * v
 		}
 		s.blockIn[b] = t
 	})
@@ -393,12 +394,7 @@ func (s *kmState) assign() (moved int) {
 		mv := 0
 		for i := lo; i < hi; i++ {
 			xi := s.x[i*d : (i+1)*d]
-			best, bc := math.Inf(1), 0
-			for c := range k {
-				if v := sqDist(xi, s.centres[c*d:(c+1)*d]); v < best {
-					best, bc = v, c
-				}
-			}
+			bc, best := nearest(xi, s.centres)
 			if s.labels[i] != bc {
 				s.labels[i] = bc
 				mv++

@@ -61,25 +61,6 @@ func checkFinite(data []float64, d int) error {
 	return nil
 }
 
-// sqDist returns the squared Euclidean distance between a and b, which
-// must have the same length.
-func sqDist(a, b []float64) float64 {
-	b = b[:len(a)]
-	var s0, s1 float64
-	i := 0
-	for ; i+1 < len(a); i += 2 {
-		d0 := a[i] - b[i]
-		d1 := a[i+1] - b[i+1]
-		s0 += d0 * d0
-		s1 += d1 * d1
-	}
-	if i < len(a) {
-		d0 := a[i] - b[i]
-		s0 += d0 * d0
-	}
-	return s0 + s1
-}
-
 // workerCount turns a Workers setting into a goroutine count: 0 means
 // GOMAXPROCS.
 func workerCount(w int) int {

@@ -153,12 +153,7 @@ func medoid(z []float64, d int, rows []int) int {
 	total := make([]float64, len(rows))
 	chunks(len(rows), 16, workerCount(0), func(_, lo, hi int) {
 		for a := lo; a < hi; a++ {
-			xa := block[a*d : (a+1)*d]
-			var s float64
-			for off := 0; off < len(block); off += d {
-				s += math.Sqrt(sqDist(xa, block[off:off+d]))
-			}
-			total[a] = s
+			total[a] = sumDistances(block[a*d:(a+1)*d], block)
 		}
 	})
 	best := 0

@@ -90,12 +90,7 @@ func silhouette(x mat.Matrix, labels []int, rows []int, widths []float64) float6
 			i := rows[r]
 			xi := data[i*d : (i+1)*d]
 			for c := range k {
-				var t float64
-				block := sorted[start[c]*d : start[c+1]*d]
-				for off := 0; off < len(block); off += d {
-					t += math.Sqrt(sqDist(xi, block[off:off+d]))
-				}
-				sum[c] = t
+				sum[c] = sumDistances(xi, sorted[start[c]*d:start[c+1]*d])
 			}
 			own := labels[i]
 			if counts[own] == 1 {
