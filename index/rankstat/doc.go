@@ -4,9 +4,11 @@
 // Ranks and Order put the highest score first. Ties share the lowest rank
 // number of their group (competition ranking, 1, 2, 2, 4), NaN scores come
 // after every number and share one rank, and tied stations are listed in
-// index order. Ranking sorts 64-bit keys that order like the float64 scores
-// with a least-significant-digit radix sort, so a Ranker ranks n scores in
-// O(n) time and, reused, without allocating.
+// index order. A Ranker distributes the scores over about n buckets by
+// value and sorts each bucket by a 64-bit key that orders like the float64
+// score, falling back to a least-significant-digit radix sort on the keys
+// when a score is infinite or the scores crowd into few buckets; either way
+// it ranks n scores in O(n) time and, reused, without allocating.
 //
 // Agreement between rankings:
 //   - Spearman's rho: the Pearson correlation of midranks (average ranks of

@@ -40,9 +40,10 @@ func Order(dst []int32, scores []float64) []int32 {
 // value is ready to use. A Ranker must not be used by more than one
 // goroutine at a time.
 type Ranker struct {
-	a, b  []item
-	order []int32
-	count *[radixPasses][radixSize]uint32
+	a, b          []item
+	order         []int32
+	bucket, start []int32
+	count         *[radixPasses][radixSize]uint32
 }
 
 // item is a sort key with the index of its score.
@@ -72,7 +73,7 @@ func (r *Ranker) Ranks(dst []int32, scores []float64) []int32 {
 		panic("rankstat: too many scores")
 	}
 	items := r.sort(scores)
-	r.order = slices.Grow(r.order[:0], n)[:n]
+	r.order = grow(r.order, n)
 	var rank int32
 	for i, it := range items {
 		if i == 0 || it.key != items[i-1].key {
@@ -111,28 +112,126 @@ func descKey(x float64) uint64 {
 // index order.
 func (r *Ranker) sort(scores []float64) []item {
 	n := len(scores)
-	a := slices.Grow(r.a[:0], n)[:n]
-	r.a = a
+	r.a = grow(r.a, n)
 	if n < smallSort {
+		a := r.a
 		for i, x := range scores {
 			a[i] = item{descKey(x), int32(i)}
 		}
-		slices.SortFunc(a, func(x, y item) int {
-			if x.key != y.key {
-				if x.key < y.key {
-					return -1
-				}
-				return 1
-			}
-			return int(x.idx - y.idx)
-		})
+		slices.SortFunc(a, compareItems)
 		return a
 	}
+	if a, ok := r.bucketSort(scores); ok {
+		return a
+	}
+	return r.radixSort(scores)
+}
 
-	// Least-significant-digit radix sort, which is stable, so equal keys
-	// keep index order. All digit counts are taken in one read, and a pass
-	// whose digit is the same for every key is skipped.
-	b := slices.Grow(r.b[:0], n)[:n]
+func compareItems(x, y item) int {
+	if x.key != y.key {
+		if x.key < y.key {
+			return -1
+		}
+		return 1
+	}
+	return int(x.idx - y.idx)
+}
+
+// bucketSort distributes the finite scores over about n buckets by value,
+// highest first, through b(x) = ⌊(max − x)·scale⌋. Floating-point
+// subtraction, multiplication and truncation are monotone, so x > y implies
+// b(x) ≤ b(y), and sorting each bucket by key orders the whole. The
+// distribution is stable and insertion sort is stable, so ties stay in
+// index order; NaN scores follow in index order. It reports false if a
+// score is infinite, the range of the scores overflows, or a bucket is
+// crowded.
+func (r *Ranker) bucketSort(scores []float64) ([]item, bool) {
+	n := len(scores)
+	lo, hi := math.Inf(1), math.Inf(-1)
+	nan := 0
+	for _, x := range scores {
+		if x != x {
+			nan++
+			continue
+		}
+		lo = min(lo, x)
+		hi = max(hi, x)
+	}
+	span := hi - lo
+	if nan == n || !(span <= math.MaxFloat64) { // an infinite score, or overflow
+		return nil, false
+	}
+	finite := n - nan
+	nb := finite
+	scale := 0.0
+	if span > 0 {
+		scale = float64(nb-1) / span
+	}
+	r.bucket = grow(r.bucket, n)
+	r.start = grow(r.start, nb+1)
+	clear(r.start)
+	for i, x := range scores {
+		if x != x {
+			r.bucket[i] = int32(nb) // NaN: after every bucket
+			continue
+		}
+		b := int32(min((hi-x)*scale, float64(nb-1)))
+		r.bucket[i] = b
+		r.start[b+1]++
+	}
+	for b := range nb {
+		r.start[b+1] += r.start[b]
+	}
+	a := r.a
+	fill := r.start[:nb]
+	nanPos := finite
+	for i, x := range scores {
+		b := r.bucket[i]
+		if b == int32(nb) {
+			a[nanPos] = item{math.MaxUint64, int32(i)}
+			nanPos++
+			continue
+		}
+		a[fill[b]] = item{descKey(x), int32(i)}
+		fill[b]++
+	}
+	// fill[b] is now the end of bucket b, and the start of bucket b+1.
+	begin := int32(0)
+	for b := range nb {
+		end := fill[b]
+		if end-begin > maxBucket {
+			return nil, false
+		}
+		insertionSort(a[begin:end])
+		begin = end
+	}
+	return a, true
+}
+
+// maxBucket is the most scores a bucket may hold before bucketSort gives
+// way to the radix sort, which does not depend on how the scores spread.
+const maxBucket = 64
+
+// insertionSort sorts a by key, keeping equal keys in their order.
+func insertionSort(a []item) {
+	for i := 1; i < len(a); i++ {
+		v := a[i]
+		j := i
+		for j > 0 && a[j-1].key > v.key {
+			a[j] = a[j-1]
+			j--
+		}
+		a[j] = v
+	}
+}
+
+// radixSort sorts by a least-significant-digit radix sort, which is stable,
+// so equal keys keep index order. All digit counts are taken in one read,
+// and a pass whose digit is the same for every key is skipped.
+func (r *Ranker) radixSort(scores []float64) []item {
+	n := len(scores)
+	a := r.a
+	b := grow(r.b, n)
 	r.b = b
 	if r.count == nil {
 		r.count = new([radixPasses][radixSize]uint32)
@@ -166,3 +265,5 @@ func (r *Ranker) sort(scores []float64) []item {
 	}
 	return a
 }
+
+func grow[T any](s []T, n int) []T { return slices.Grow(s[:0], n)[:n] }

@@ -114,6 +114,54 @@ func TestRankerReuse(t *testing.T) {
 	}
 }
 
+func TestRankerPaths(t *testing.T) {
+	// Long inputs go through the bucket sort, or through the radix sort
+	// when a score is infinite or the scores crowd into few values; all
+	// must agree with the definition.
+	rnd := rand.New(rand.NewPCG(5, 6))
+	for _, test := range []struct {
+		name  string
+		score func(i int) float64
+	}{
+		{"bucket", func(int) float64 { return rnd.NormFloat64() }},
+		{"bucket with nan", func(i int) float64 {
+			if i%17 == 0 {
+				return nan
+			}
+			return rnd.Float64()
+		}},
+		{"radix for infinity", func(i int) float64 {
+			if i == 500 {
+				return math.Inf(-1)
+			}
+			return rnd.Float64()
+		}},
+		{"radix for crowded buckets", func(int) float64 { return float64(rnd.IntN(3)) }},
+		{"huge span", func(i int) float64 { return math.Copysign(math.MaxFloat64, float64(i%2)-0.5) * rnd.Float64() }},
+		{"all nan", func(int) float64 { return nan }},
+		{"infinity and nan only", func(i int) float64 { return []float64{math.Inf(1), nan}[i%2] }},
+	} {
+		t.Run(test.name, func(t *testing.T) {
+			x := make([]float64, 3000)
+			for i := range x {
+				x[i] = test.score(i)
+			}
+			var r Ranker
+			got := r.Ranks(nil, x)
+			if want := naiveRanks(x); !slices.Equal(got, want) {
+				t.Error("ranks differ from the definition")
+			}
+			order := r.Order()
+			for i := 1; i < len(order); i++ {
+				a, b := order[i-1], order[i]
+				if got[a] > got[b] || got[a] == got[b] && a > b {
+					t.Fatalf("Order puts %d (rank %d) before %d (rank %d)", a, got[a], b, got[b])
+				}
+			}
+		})
+	}
+}
+
 func TestRanksLengthMismatch(t *testing.T) {
 	defer func() {
 		if recover() == nil {
