@@ -1,6 +1,7 @@
 package index
 
 import (
+	"cmp"
 	"fmt"
 	"math"
 	"slices"
@@ -86,8 +87,6 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config) (*
 	// Events by station, with cross-table checks.
 	byStation := make([][]*Event, n)
 	if events != nil {
-		type rowKey struct{ station, event, variable string }
-		first := map[rowKey]int{}
 		unknownVar := map[string]int{}
 		for k := range events.Events {
 			e := &events.Events[k]
@@ -99,12 +98,6 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config) (*
 				at("station", "station %q is not in the attribute table %s", e.Station, attrs.File)
 				continue
 			}
-			key := rowKey{e.Station, e.ID, e.Variable}
-			if l, dup := first[key]; dup {
-				at("event", "duplicate row for station %q, event %q, variable %q (first on line %d)", e.Station, e.ID, e.Variable, l)
-				continue
-			}
-			first[key] = e.Line
 			if cfg.Memory.Dryness == config.Fraction && !math.IsNaN(e.Dryness) && (e.Dryness < 0 || e.Dryness > 1) {
 				at("antecedent_dryness", "want a fraction in [0, 1] (memory.dryness = %q), got %g", cfg.Memory.Dryness, e.Dryness)
 			}
@@ -112,6 +105,26 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config) (*
 				unknownVar[e.Variable]++
 			}
 			byStation[idx] = append(byStation[idx], e)
+		}
+		// Duplicate rows, station by station: sorting a few dozen events
+		// is far cheaper than one map over a million rows.
+		for i, evs := range byStation {
+			sorted := slices.Clone(evs)
+			slices.SortStableFunc(sorted, func(a, b *Event) int {
+				return cmp.Or(strings.Compare(a.ID, b.ID), strings.Compare(a.Variable, b.Variable), a.Line-b.Line)
+			})
+			dup := false
+			for k := 1; k < len(sorted); k++ {
+				a, b := sorted[k-1], sorted[k]
+				if a.ID == b.ID && a.Variable == b.Variable {
+					errs.Add(&tabular.ParseError{File: events.File, Line: b.Line, Column: "event",
+						Err: fmt.Errorf("duplicate row for station %q, event %q, variable %q (first on line %d)", b.Station, b.ID, b.Variable, a.Line)})
+					dup = true
+				}
+			}
+			if dup {
+				byStation[i] = nil
+			}
 		}
 		for _, v := range sortedKeys(unknownVar) {
 			raw.Warnings = append(raw.Warnings, &Warning{Msg: fmt.Sprintf("%s: variable %q (%d rows) has no [[variable]] table; only indicators that take every variable use it", events.File, v, unknownVar[v])})
@@ -134,11 +147,17 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config) (*
 		return nil, errs.Errors()
 	}
 
+	attrCols := make([][]float64, len(cfg.Indicators))
+	for j, ind := range cfg.Indicators {
+		if ind.Measure == config.Attribute {
+			attrCols[j], _ = attrs.Column(ind.Attribute)
+		}
+	}
 	for i := range n {
 		evs := byStation[i]
 		raw.Events[i] = countDistinct(evs)
 		for j, ind := range cfg.Indicators {
-			v, note, fb := indicator(ind, evs, attrs, i, recordYears, cfg)
+			v, note, fb := indicator(ind, evs, attrCols[j], i, recordYears, cfg)
 			raw.Values[i][j], raw.Notes[i][j], raw.Fallback[i][j] = v, note, fb
 		}
 	}
@@ -146,11 +165,11 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config) (*
 }
 
 // indicator computes indicator ind at station i from its events evs.
-func indicator(ind config.Indicator, evs []*Event, attrs *attributes.Table, i int, recordYears []float64, cfg *config.Config) (v float64, note string, fallback bool) {
+// attrCol holds the indicator's attribute column for measure "attribute".
+func indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, recordYears []float64, cfg *config.Config) (v float64, note string, fallback bool) {
 	nan := math.NaN()
 	if ind.Measure == config.Attribute {
-		col, _ := attrs.Column(ind.Attribute)
-		return transform(col[i], ind.Transform)
+		return transform(attrCol[i], ind.Transform)
 	}
 	sel := filter(evs, ind)
 	switch ind.Measure {
@@ -269,11 +288,12 @@ func describeFilter(ind config.Indicator) string {
 
 // countDistinct counts distinct event identifiers.
 func countDistinct(evs []*Event) int {
-	seen := make(map[string]bool, len(evs))
-	for _, e := range evs {
-		seen[e.ID] = true
+	ids := make([]string, len(evs))
+	for k, e := range evs {
+		ids[k] = e.ID
 	}
-	return len(seen)
+	slices.Sort(ids)
+	return len(slices.Compact(ids))
 }
 
 func sortedKeys[V any](m map[string]V) []string {

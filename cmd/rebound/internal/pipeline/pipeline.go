@@ -1,0 +1,194 @@
+// Package pipeline runs rebound's job end to end for the command: it loads
+// and checks the configuration and every input, derives the indicators,
+// weights, scores and ranks, and collects what the writers need (input
+// digests, row counts, warnings). It prints nothing.
+package pipeline
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+
+	"rebound/attributes"
+	"rebound/config"
+	"rebound/index"
+)
+
+// Input describes one input file as it was read.
+type Input struct {
+	Role     string // "config", "attributes", "events", ...
+	Path     string // as given (resolved against the configuration)
+	SHA256   string
+	Bytes    int64
+	Rows     int // data rows read
+	Rejected int // rows rejected (always 0 in a run that succeeded)
+	Notes    []string
+}
+
+// Run is one execution of the pipeline.
+type Run struct {
+	Config  *config.Config
+	Attrs   *attributes.Table
+	Events  *index.EventTable // nil when no indicator needs events
+	Inputs  []Input
+	Raw     *index.Raw
+	Weights *index.Weights
+	Result  *index.Result
+	// Warnings gathers every warning of every step, for the manifest,
+	// workbook and memo.
+	Warnings []error
+}
+
+// Load reads and validates the configuration at path and every input it
+// names, returning every problem found. Nothing is computed beyond what
+// validation needs.
+func Load(path string) (*Run, []error) {
+	cfg, errs := config.Load(path)
+	if len(errs) > 0 {
+		return nil, errs
+	}
+	r := &Run{Config: cfg}
+	if in, err := digest("config", path); err == nil {
+		r.Inputs = append(r.Inputs, in)
+	}
+
+	attrPath := cfg.Path(cfg.Inputs.Attributes)
+	attrs, aerrs := attributes.Load(attrPath)
+	errs = append(errs, aerrs...)
+	if len(aerrs) == 0 {
+		r.Attrs = attrs
+		in, err := digest("attributes", attrPath)
+		if err != nil {
+			errs = append(errs, err)
+		}
+		in.Rows = attrs.Rows
+		r.Inputs = append(r.Inputs, in)
+		if cfg.Normalization.Scope == config.ScopeGroup && !attrs.HasGroup {
+			errs = append(errs, &config.Error{File: cfg.File, Key: "normalization.scope",
+				Msg: fmt.Sprintf("scope \"group\" needs a group column in %s", attrPath)})
+		}
+	}
+
+	if cfg.Inputs.Events != "" {
+		evPath := cfg.Path(cfg.Inputs.Events)
+		events, eerrs := index.LoadEvents(evPath)
+		errs = append(errs, eerrs...)
+		if len(eerrs) == 0 {
+			r.Events = events
+			in, err := digest("events", evPath)
+			if err != nil {
+				errs = append(errs, err)
+			}
+			in.Rows = len(events.Events)
+			if len(events.Extra) > 0 {
+				in.Notes = append(in.Notes, fmt.Sprintf("extra columns kept in the file but not used: %v", events.Extra))
+			}
+			r.Inputs = append(r.Inputs, in)
+		}
+	}
+	if len(errs) > 0 {
+		return nil, errs
+	}
+
+	raw, cerrs := index.Compute(r.Events, r.Attrs, cfg)
+	if len(cerrs) > 0 {
+		return nil, cerrs
+	}
+	r.Raw = raw
+	r.Warnings = append(r.Warnings, raw.Warnings...)
+	w, err := index.ResolveWeights(cfg)
+	if err != nil {
+		return nil, []error{err}
+	}
+	r.Weights = w
+	r.Warnings = append(r.Warnings, w.Warnings...)
+	return r, nil
+}
+
+// Score normalises, aggregates and ranks.
+func (r *Run) Score() error {
+	var groups []string
+	if r.Config.Normalization.Scope == config.ScopeGroup {
+		groups = r.Raw.Groups
+	}
+	res, err := index.Score(r.Raw, index.SpecFrom(r.Config, r.Weights, groups))
+	if err != nil {
+		return err
+	}
+	r.Result = res
+	r.Warnings = append(r.Warnings, res.Warnings...)
+	for i, id := range r.Raw.Stations {
+		for j, ind := range r.Raw.Indicators {
+			if note := r.Raw.Notes[i][j]; note != "" {
+				r.Warnings = append(r.Warnings, &index.Warning{Station: id, Indicator: ind.Name, Msg: note})
+			}
+		}
+		if r.Raw.Events[i] < r.Config.Missing.MinEvents && hasEventIndicator(r.Config) {
+			r.Warnings = append(r.Warnings, &index.Warning{Station: id,
+				Msg: fmt.Sprintf("%d events, fewer than missing.min_events = %d; read its score with care", r.Raw.Events[i], r.Config.Missing.MinEvents)})
+		}
+	}
+	return nil
+}
+
+func hasEventIndicator(cfg *config.Config) bool {
+	for _, in := range cfg.Indicators {
+		if in.Measure.FromEvents() {
+			return true
+		}
+	}
+	return false
+}
+
+// OutputDir returns the output folder: override when not "", else the
+// configuration's output.dir resolved against the configuration file.
+func (r *Run) OutputDir(override string) string {
+	if override != "" {
+		return override
+	}
+	return r.Config.Path(r.Config.Output.Dir)
+}
+
+// CheckOutputs refuses output paths that would overwrite an input.
+func (r *Run) CheckOutputs(paths []string) error {
+	inputs := map[string]string{}
+	for _, in := range r.Inputs {
+		if abs, err := filepath.Abs(in.Path); err == nil {
+			inputs[abs] = in.Role
+		}
+	}
+	for _, p := range paths {
+		abs, err := filepath.Abs(p)
+		if err != nil {
+			return err
+		}
+		if role, ok := inputs[abs]; ok {
+			return fmt.Errorf("output %s is the %s input; choose another output folder (-out)", p, role)
+		}
+	}
+	return nil
+}
+
+func digest(role, path string) (Input, error) {
+	in := Input{Role: role, Path: path}
+	f, err := os.Open(path)
+	if err != nil {
+		return in, err
+	}
+	defer f.Close()
+	h := sha256.New()
+	n, err := io.Copy(h, f)
+	if err != nil {
+		return in, fmt.Errorf("%s: %w", path, err)
+	}
+	in.SHA256 = hex.EncodeToString(h.Sum(nil))
+	in.Bytes = n
+	return in, nil
+}
+
+// ErrNoScore reports a run in which no station could be scored.
+var ErrNoScore = errors.New("no station could be scored")

@@ -1,0 +1,85 @@
+package report
+
+import (
+	"encoding/csv"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+
+	"rebound/cmd/rebound/internal/pipeline"
+)
+
+// Num formats a number for CSV with 12 significant digits (enough for
+// every quantity here, and free of binary noise such as 0.5700000000000001),
+// and an empty cell for NaN.
+func Num(x float64) string {
+	if math.IsNaN(x) {
+		return ""
+	}
+	return strconv.FormatFloat(x, 'g', 12, 64)
+}
+
+// Round formats x with d decimals, or "" for NaN.
+func Round(x float64, d int) string {
+	if math.IsNaN(x) {
+		return ""
+	}
+	s := strconv.FormatFloat(x, 'f', d, 64)
+	if strings.Trim(s, "-0.") == "" {
+		s = strings.TrimPrefix(s, "-") // no "-0.00"
+	}
+	return s
+}
+
+// RankingColumns are the columns of ranking.csv.
+var RankingColumns = []string{"rank", "station", "name", "group", "score", "events", "latitude", "longitude", "flags"}
+
+// WriteRanking writes ranking.csv: one row per station, from rank 1 down
+// (ties by station identifier). The score keeps full precision.
+func WriteRanking(w io.Writer, r *pipeline.Run) error {
+	cw := csv.NewWriter(w)
+	cw.Write(RankingColumns)
+	res := r.Result
+	for _, i := range res.Order {
+		s := r.Attrs.Stations[i]
+		cw.Write([]string{
+			strconv.Itoa(res.Rank[i]), s.ID, s.Name, s.Group, Num(res.Score[i]),
+			strconv.Itoa(r.Raw.Events[i]), Num(s.Latitude), Num(s.Longitude), strings.Join(res.Flags[i], ";"),
+		})
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+// IndicatorColumns are the columns of indicators.csv.
+var IndicatorColumns = []string{"station", "indicator", "measure", "raw", "normalized", "weight", "contribution", "status", "note"}
+
+// WriteIndicators writes indicators.csv in long form: one row per station
+// and indicator, stations in rank order. status is ok, missing (weight
+// redistributed), imputed (group median used) or rmst (restricted mean
+// survival time instead of the Kaplan–Meier median).
+func WriteIndicators(w io.Writer, r *pipeline.Run) error {
+	cw := csv.NewWriter(w)
+	cw.Write(IndicatorColumns)
+	res := r.Result
+	for _, i := range res.Order {
+		for j, ind := range r.Raw.Indicators {
+			status := "ok"
+			switch {
+			case res.Imputed[i][j]:
+				status = "imputed"
+			case math.IsNaN(res.Normalized[i][j]):
+				status = "missing"
+			case r.Raw.Fallback[i][j]:
+				status = "rmst"
+			}
+			cw.Write([]string{
+				r.Raw.Stations[i], ind.Name, string(ind.Measure), Num(r.Raw.Values[i][j]), Num(res.Normalized[i][j]),
+				Num(r.Weights.W[j]), Num(res.Contribution[i][j]), status, r.Raw.Notes[i][j],
+			})
+		}
+	}
+	cw.Flush()
+	return cw.Error()
+}

@@ -1,0 +1,322 @@
+package main
+
+import (
+	"bytes"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"time"
+
+	"rebound/cmd/rebound/internal/demo"
+	"rebound/cmd/rebound/internal/pipeline"
+	"rebound/cmd/rebound/internal/report"
+	"rebound/config"
+)
+
+const version = "0.1.0"
+
+// usageError is a mistake on the command line (exit status 2).
+type usageError struct{ msg string }
+
+func (e usageError) Error() string { return e.msg }
+
+// errReported is a failure whose details were already written to stderr
+// (exit status 1, nothing more to print).
+type errReported struct{ n int }
+
+func (e errReported) Error() string { return fmt.Sprintf("%d problems", e.n) }
+
+// run is the whole command: it parses args, does the work, writes results to
+// stdout and problems to stderr, and returns an error that main turns into
+// an exit status.
+func run(args []string, stdout, stderr io.Writer) error {
+	if len(args) == 0 {
+		fmt.Fprint(stderr, usage)
+		return usageError{}
+	}
+	cmd, rest := args[0], args[1:]
+	switch cmd {
+	case "run":
+		return cmdRun(rest, stdout, stderr)
+	case "check":
+		return cmdCheck(rest, stdout, stderr)
+	case "init":
+		return cmdInit(rest, stdout, stderr)
+	case "demo":
+		return cmdDemo(rest, stdout, stderr)
+	case "version", "-version", "--version":
+		fmt.Fprintf(stdout, "rebound %s\n", version)
+		return nil
+	case "help", "-h", "-help", "--help":
+		return cmdHelp(rest, stdout)
+	}
+	return usageError{fmt.Sprintf("unknown command %q", cmd)}
+}
+
+const usage = `rebound ranks river stations by the resilience of their water quality to
+heat waves, droughts and floods.
+
+Usage:
+  rebound run -config FILE [-out DIR] [-seed N] [-all]   score and rank, write outputs
+  rebound check -config FILE                             validate the configuration and inputs
+  rebound init [-o FILE] [-force]                        write a commented configuration template
+  rebound demo [-out DIR] [-force]                       write an invented demo region and run it
+  rebound version                                        print the version
+  rebound help [command]                                 show help
+
+Flags may be written -flag or --flag. Exit status: 0 ok, 1 bad input or
+failed check, 2 usage error.
+`
+
+var helpText = map[string]string{
+	"run": `rebound run -config FILE [-out DIR] [-seed N] [-all]
+
+Reads the configuration and every input it names, derives the indicators,
+scores and ranks every station, prints the ranking (the top and bottom
+output.print stations; -all prints every station) and writes into DIR
+(default: output.dir beside the configuration):
+  ranking.csv     rank, station, name, group, score, events, position, flags
+  indicators.csv  raw, normalised value, weight and contribution per station and indicator
+  run.json        manifest: versions, resolved configuration, SHA-256 of every
+                  input, row counts, weights used, every warning, the seed
+Nothing is written when an input is bad; outputs replace earlier ones
+atomically, and an output path equal to an input is refused.
+`,
+	"check": `rebound check -config FILE
+
+Validates the configuration and every input and lists all problems found,
+one per line, each with its file and line (or configuration key). Exit
+status 1 when there is any problem.
+`,
+	"init": `rebound init [-o FILE] [-force]
+
+Writes a fully commented configuration template to FILE (default
+rebound.toml). An existing file is not overwritten unless -force is given.
+`,
+	"demo": `rebound demo [-out DIR] [-force]
+
+Writes an invented demonstration region (stations, events, configuration)
+into DIR (default rebound-demo) and runs the whole pipeline on it, writing
+outputs into DIR/out. The data are generated from a fixed seed, so every
+run writes the same files. Files that exist with other content (say, an
+edited configuration) are not overwritten unless -force is given.
+`,
+}
+
+func cmdHelp(args []string, stdout io.Writer) error {
+	if len(args) == 0 {
+		fmt.Fprint(stdout, usage)
+		return nil
+	}
+	text, ok := helpText[args[0]]
+	if !ok {
+		return usageError{fmt.Sprintf("no help for %q", args[0])}
+	}
+	fmt.Fprint(stdout, text)
+	return nil
+}
+
+// newFlags returns a silent FlagSet for a subcommand; parse reports -h as
+// a request for help (exit 0) and other problems as usage errors.
+func newFlags(name string) *flag.FlagSet {
+	fs := flag.NewFlagSet(name, flag.ContinueOnError)
+	fs.SetOutput(io.Discard)
+	return fs
+}
+
+func parse(fs *flag.FlagSet, args []string, stdout io.Writer) (help bool, err error) {
+	if err := fs.Parse(args); err != nil {
+		if errors.Is(err, flag.ErrHelp) {
+			fmt.Fprint(stdout, helpText[fs.Name()])
+			return true, nil
+		}
+		return false, usageError{fmt.Sprintf("%s: %v", fs.Name(), err)}
+	}
+	if fs.NArg() > 0 {
+		return false, usageError{fmt.Sprintf("%s: unexpected argument %q", fs.Name(), fs.Arg(0))}
+	}
+	return false, nil
+}
+
+// report writes each problem on its own line and returns errReported.
+func reportProblems(stderr io.Writer, errs []error) error {
+	for _, e := range errs {
+		fmt.Fprintln(stderr, e.Error())
+	}
+	return errReported{len(errs)}
+}
+
+func cmdRun(args []string, stdout, stderr io.Writer) error {
+	fs := newFlags("run")
+	cfgPath := fs.String("config", "", "configuration file")
+	out := fs.String("out", "", "output folder")
+	seed := fs.String("seed", "", "seed (overrides the configuration)")
+	all := fs.Bool("all", false, "print every station")
+	if help, err := parse(fs, args, stdout); help || err != nil {
+		return err
+	}
+	if *cfgPath == "" {
+		return usageError{"run: -config FILE is required"}
+	}
+	var seedOverride *uint64
+	if *seed != "" {
+		s, err := strconv.ParseUint(*seed, 10, 64)
+		if err != nil {
+			return usageError{fmt.Sprintf("run: -seed: want a non-negative integer, got %q", *seed)}
+		}
+		seedOverride = &s
+	}
+	return runPipeline(*cfgPath, *out, seedOverride, *all, stdout, stderr)
+}
+
+func runPipeline(cfgPath, out string, seed *uint64, all bool, stdout, stderr io.Writer) error {
+	r, errs := pipeline.Load(cfgPath)
+	if len(errs) > 0 {
+		return reportProblems(stderr, errs)
+	}
+	if seed != nil {
+		r.Config.Seed = *seed
+	}
+	if err := r.Score(); err != nil {
+		return err
+	}
+	dir := r.OutputDir(out)
+	files := []struct {
+		name  string
+		write func(io.Writer) error
+	}{
+		{"ranking.csv", func(w io.Writer) error { return report.WriteRanking(w, r) }},
+		{"indicators.csv", func(w io.Writer) error { return report.WriteIndicators(w, r) }},
+	}
+	var names, paths []string
+	for _, f := range files {
+		names = append(names, f.name)
+		paths = append(paths, filepath.Join(dir, f.name))
+	}
+	names = append(names, "run.json")
+	paths = append(paths, filepath.Join(dir, "run.json"))
+	if err := r.CheckOutputs(paths); err != nil {
+		return err
+	}
+	man, err := report.BuildManifest(r, report.Meta{Version: version, RunDate: runDate(), Outputs: names})
+	if err != nil {
+		return err
+	}
+	// Render everything before writing anything, so a failure leaves the
+	// output folder as it was.
+	rendered := make([][]byte, 0, len(paths))
+	for _, f := range files {
+		var buf bytes.Buffer
+		if err := f.write(&buf); err != nil {
+			return fmt.Errorf("%s: %w", f.name, err)
+		}
+		rendered = append(rendered, buf.Bytes())
+	}
+	var buf bytes.Buffer
+	if err := report.WriteManifest(&buf, man); err != nil {
+		return err
+	}
+	rendered = append(rendered, buf.Bytes())
+	for k, p := range paths {
+		data := rendered[k]
+		if err := report.WriteFile(p, func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
+			return err
+		}
+	}
+	report.PrintRanking(stdout, r, r.Config.Output.Print, all)
+	fmt.Fprintf(stdout, "\nWrote %s to %s", strings.Join(names, ", "), dir)
+	if len(r.Warnings) > 0 {
+		fmt.Fprintf(stdout, " (%d warnings: see run.json)", len(r.Warnings))
+	}
+	fmt.Fprintln(stdout)
+	return nil
+}
+
+// runDate is the date recorded in the outputs: the day given by the
+// SOURCE_DATE_EPOCH environment variable (seconds since 1970, the
+// reproducible-builds convention) when it is set, else today (UTC). Outputs
+// are byte-identical for the same inputs, seed and run date.
+func runDate() string {
+	if s := os.Getenv("SOURCE_DATE_EPOCH"); s != "" {
+		if sec, err := strconv.ParseInt(s, 10, 64); err == nil {
+			return time.Unix(sec, 0).UTC().Format("2006-01-02")
+		}
+	}
+	return time.Now().UTC().Format("2006-01-02")
+}
+
+func cmdCheck(args []string, stdout, stderr io.Writer) error {
+	fs := newFlags("check")
+	cfgPath := fs.String("config", "", "configuration file")
+	if help, err := parse(fs, args, stdout); help || err != nil {
+		return err
+	}
+	if *cfgPath == "" {
+		return usageError{"check: -config FILE is required"}
+	}
+	r, errs := pipeline.Load(*cfgPath)
+	if len(errs) > 0 {
+		reportProblems(stderr, errs)
+		fmt.Fprintf(stderr, "%d problems found\n", len(errs))
+		return errReported{len(errs)}
+	}
+	events := 0
+	if r.Events != nil {
+		events = len(r.Events.Events)
+	}
+	fmt.Fprintf(stdout, "%s: ok: %d stations, %d event rows, %d indicators, weights %s\n",
+		*cfgPath, len(r.Attrs.Stations), events, len(r.Config.Indicators), r.Weights.Method)
+	for _, w := range r.Warnings {
+		fmt.Fprintln(stdout, "warning: "+w.Error())
+	}
+	return nil
+}
+
+func cmdInit(args []string, stdout, stderr io.Writer) error {
+	fs := newFlags("init")
+	out := fs.String("o", "rebound.toml", "file to write")
+	force := fs.Bool("force", false, "overwrite an existing file")
+	if help, err := parse(fs, args, stdout); help || err != nil {
+		return err
+	}
+	if _, err := os.Stat(*out); err == nil && !*force {
+		return fmt.Errorf("%s exists; not overwriting it (use -force to replace it)", *out)
+	}
+	if err := report.WriteFile(*out, func(w io.Writer) error { _, err := io.WriteString(w, config.Template()); return err }); err != nil {
+		return err
+	}
+	fmt.Fprintf(stdout, "Wrote %s; edit it, then run: rebound check -config %s\n", *out, *out)
+	return nil
+}
+
+func cmdDemo(args []string, stdout, stderr io.Writer) error {
+	fs := newFlags("demo")
+	out := fs.String("out", "rebound-demo", "folder for the demo inputs and outputs")
+	force := fs.Bool("force", false, "overwrite demo files that were changed")
+	if help, err := parse(fs, args, stdout); help || err != nil {
+		return err
+	}
+	files, err := demo.Files()
+	if err != nil {
+		return err
+	}
+	for _, f := range files {
+		p := filepath.Join(*out, f.Name)
+		if old, err := os.ReadFile(p); err == nil && !bytes.Equal(old, f.Data) && !*force {
+			return fmt.Errorf("%s exists and differs from the demo's version (edited?); not overwriting it (use -force, or another -out)", p)
+		}
+	}
+	for _, f := range files {
+		data := f.Data
+		if err := report.WriteFile(filepath.Join(*out, f.Name), func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
+			return err
+		}
+	}
+	fmt.Fprintf(stdout, "Wrote the demo region (%s) to %s\n\n", demo.Region, *out)
+	return runPipeline(filepath.Join(*out, demo.ConfigName), "", nil, false, stdout, stderr)
+}
