@@ -50,7 +50,7 @@ func BenchmarkFromLong(b *testing.B) {
 // BenchmarkExtract computes the default features of one station of 30
 // years.
 func BenchmarkExtract(b *testing.B) {
-	_, st := synthFile(1, 30)
+	_, st := synthFile(2, 30) // the last station has no water temperature
 	e, _ := New(Config{})
 	b.ReportAllocs()
 	var dst []float64

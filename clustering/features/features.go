@@ -6,6 +6,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
 
 	"rebound/index/series"
 )
@@ -152,6 +153,7 @@ type Extractor struct {
 	cfg   Config
 	feats []feature
 	vars  []string // variables the features use, in first-use order
+	pool  sync.Pool
 }
 
 // New checks the configuration and returns an Extractor.
@@ -255,7 +257,12 @@ func (e *Extractor) Extract(dst []float64, s *series.Station) (values []float64,
 	if ok, why := e.cfg.Coverage.Check(s, e.vars...); !ok {
 		return dst, why
 	}
-	c := calc{e: e, s: s, vars: map[string]*varCalc{}}
+	c, _ := e.pool.Get().(*calc)
+	if c == nil {
+		c = &calc{}
+	}
+	c.reset(e, s)
+	defer e.pool.Put(c)
 	var undefined []string
 	for i, f := range e.feats {
 		dst[i] = c.feature(f)
@@ -269,11 +276,33 @@ func (e *Extractor) Extract(dst []float64, s *series.Station) (values []float64,
 	return dst, reason
 }
 
-// calc computes features of one station, sharing work between them.
+// calc computes features of one station, sharing work between them. Its
+// buffers are reused from station to station.
 type calc struct {
-	e    *Extractor
-	s    *series.Station
-	vars map[string]*varCalc
+	e     *Extractor
+	s     *series.Station
+	vars  []varCalc
+	names []string
+	bufs  [][]float64 // scratch buffers; the first used of them are taken
+	used  int
+}
+
+func (c *calc) reset(e *Extractor, s *series.Station) {
+	c.e, c.s = e, s
+	// Room for every variable up front: pointers into vars stay valid.
+	c.vars = slices.Grow(c.vars[:0], len(e.vars))
+	c.names, c.used = c.names[:0], 0
+}
+
+// buf returns a scratch slice of length n.
+func (c *calc) buf(n int) []float64 {
+	if c.used == len(c.bufs) {
+		c.bufs = append(c.bufs, nil)
+	}
+	b := slices.Grow(c.bufs[c.used][:0], n)[:n]
+	c.bufs[c.used] = b
+	c.used++
+	return b
 }
 
 // varCalc holds what is computed once per variable.
@@ -286,16 +315,19 @@ type varCalc struct {
 	harm           Harmonic
 	harmOK         bool
 	anom           []float64
-	sorted         []float64 // present values, reordered by selection
+	sorted         []float64 // present values, partially ordered by selection
+	pivots         []int     // indices k of sorted already in place (see quantile)
 }
 
 func (c *calc) v(name string) *varCalc {
-	vc := c.vars[name]
-	if vc == nil {
-		vc = &varCalc{x: c.s.Vars[name]}
-		c.vars[name] = vc
+	for i, n := range c.names {
+		if n == name {
+			return &c.vars[i]
+		}
 	}
-	return vc
+	c.names = append(c.names, name)
+	c.vars = append(c.vars, varCalc{x: c.s.Vars[name]})
+	return &c.vars[len(c.vars)-1]
 }
 
 func (vc *varCalc) moments() {
@@ -328,27 +360,62 @@ func (c *calc) anomalies(vc *varCalc) []float64 {
 		if !ok {
 			return nil
 		}
-		vc.anom = anomalies(make([]float64, len(vc.x)), c.s.Start, vc.x, h)
+		vc.anom = anomalies(c.buf(len(vc.x)), c.s.Start, vc.x, h)
 	}
 	return vc.anom
 }
 
-func (vc *varCalc) quantile(p float64) float64 {
+// quantile returns the p-quantile of the variable's values. Each selection
+// leaves sorted[k] in its sorted place with no larger value before it and
+// no smaller after, so later selections search only between the nearest
+// such places.
+func (c *calc) quantile(vc *varCalc, p float64) float64 {
 	if vc.sorted == nil {
-		vc.sorted = make([]float64, 0, len(vc.x))
+		vc.sorted = c.buf(len(vc.x))[:0]
 		for _, v := range vc.x {
 			if !math.IsNaN(v) {
 				vc.sorted = append(vc.sorted, v)
 			}
 		}
+		vc.pivots = vc.pivots[:0]
 	}
-	return quantileSelect(p, vc.sorted)
+	x := vc.sorted
+	n := len(x)
+	if n == 0 {
+		return math.NaN()
+	}
+	h := float64(n-1) * p
+	k := max(0, min(int(math.Floor(h)), n-1))
+	a := vc.selectAt(k)
+	if k == n-1 || h == float64(k) {
+		return a
+	}
+	b := vc.selectAt(k + 1)
+	return a + (h-float64(k))*(b-a)
+}
+
+// selectAt puts the k-th smallest value in place and returns it.
+func (vc *varCalc) selectAt(k int) float64 {
+	lo, hi := 0, len(vc.sorted)
+	for _, p := range vc.pivots {
+		switch {
+		case p == k:
+			return vc.sorted[k]
+		case p < k:
+			lo = max(lo, p+1)
+		default:
+			hi = min(hi, p)
+		}
+	}
+	v := selectKth(vc.sorted[lo:hi], k-lo)
+	vc.pivots = append(vc.pivots, k)
+	return v
 }
 
 func (c *calc) feature(f feature) float64 {
 	vc := c.v(f.v)
 	if f.p > 0 {
-		return vc.quantile(f.p)
+		return c.quantile(vc, f.p)
 	}
 	switch f.stat {
 	case "mean":
@@ -385,11 +452,11 @@ func (c *calc) feature(f feature) float64 {
 	case "bfi":
 		return c.bfi(vc.x)
 	case "q90_q50":
-		q50 := vc.quantile(0.5)
+		q50 := c.quantile(vc, 0.5)
 		if !(q50 > 0) {
 			return math.NaN()
 		}
-		return vc.quantile(0.1) / q50
+		return c.quantile(vc, 0.1) / q50
 	case "thermal_sensitivity":
 		return ThermalSensitivity(vc.x, c.v(series.AirTemperature).x)
 	case "air_lag":
@@ -411,7 +478,7 @@ func (c *calc) feature(f feature) float64 {
 // flow.
 func (c *calc) bfi(q []float64) float64 {
 	var base, total float64
-	var buf []float64
+	buf := c.buf(len(q))
 	for i := 0; i < len(q); {
 		if math.IsNaN(q[i]) {
 			i++
@@ -423,8 +490,8 @@ func (c *calc) bfi(q []float64) float64 {
 		}
 		if j-i >= c.e.cfg.MinSegment {
 			seg := q[i:j]
-			buf = c.e.cfg.Baseflow.Baseflow(slices.Grow(buf[:0], len(seg))[:len(seg)], seg)
-			for k, b := range buf {
+			bf := c.e.cfg.Baseflow.Baseflow(buf[:len(seg)], seg)
+			for k, b := range bf {
 				base += b
 				total += seg[k]
 			}

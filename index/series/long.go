@@ -470,13 +470,14 @@ func (w *worker) full() bool { return w.rd.maxErrs > 0 && len(w.probs) >= w.rd.m
 func (w *worker) parse(b *block) *Station {
 	w.rows, w.probs, w.skipped, w.nrows, w.bad = w.rows[:0], w.probs[:0], nil, 0, 0
 	data, pos, line := b.data, 0, b.line
+	plainBlock := bytes.IndexByte(data, '"') < 0
 	for pos < len(data) && !w.full() {
 		rest := data[pos:]
 		n, adv, br := len(rest), len(rest), 0
 		if i := bytes.IndexByte(rest, '\n'); i >= 0 {
 			n, adv = i, i+1
 		}
-		plain := bytes.IndexByte(rest[:n], '"') < 0
+		plain := plainBlock || bytes.IndexByte(rest[:n], '"') < 0
 		if !plain {
 			n, adv, br, _ = scanRecord(rest, true)
 		}
