@@ -390,7 +390,21 @@ func (c *calc) quantile(vc *varCalc, p float64) float64 {
 	if k == n-1 || h == float64(k) {
 		return a
 	}
-	b := vc.selectAt(k + 1)
+	// The next order statistic is the smallest value between k and the
+	// next value in place.
+	next := n
+	for _, p := range vc.pivots {
+		if p > k {
+			next = min(next, p)
+		}
+	}
+	b := math.Inf(1)
+	if next < n {
+		b = x[next]
+	}
+	for _, v := range x[k+1 : next] {
+		b = min(b, v)
+	}
 	return a + (h-float64(k))*(b-a)
 }
 

@@ -54,38 +54,41 @@ func Lag1(x []float64) float64 {
 }
 
 // laggedCorrelation returns the Pearson correlation of the pairs
-// (x[t], y[t+k]) with both values present.
+// (x[t], y[t+k]) with both values present. It makes one pass with sums of
+// the values shifted by the first pair, which keeps the cancellation of the
+// one-pass formula small (the shifted-data algorithm; Chan, Golub & LeVeque
+// 1983).
 func laggedCorrelation(x, y []float64, k int) float64 {
-	var sx, sy float64
+	var sx, sy, sxx, syy, sxy, cx, cy float64
 	n := 0
-	for t := 0; t+k < len(y) && t < len(x); t++ {
+	end := min(len(x), len(y)-k)
+	for t := 0; t < end; t++ {
 		a, b := x[t], y[t+k]
 		if math.IsNaN(a) || math.IsNaN(b) {
 			continue
 		}
+		if n == 0 {
+			cx, cy = a, b
+		}
+		a -= cx
+		b -= cy
 		sx += a
 		sy += b
+		sxx += a * a
+		syy += b * b
+		sxy += a * b
 		n++
 	}
 	if n < 3 {
 		return math.NaN()
 	}
-	mx, my := sx/float64(n), sy/float64(n)
-	var sxx, syy, sxy float64
-	for t := 0; t+k < len(y) && t < len(x); t++ {
-		a, b := x[t], y[t+k]
-		if math.IsNaN(a) || math.IsNaN(b) {
-			continue
-		}
-		da, db := a-mx, b-my
-		sxx += da * da
-		syy += db * db
-		sxy += da * db
-	}
-	if sxx == 0 || syy == 0 {
+	fn := float64(n)
+	vx := sxx - sx*sx/fn
+	vy := syy - sy*sy/fn
+	if !(vx > 0) || !(vy > 0) {
 		return math.NaN()
 	}
-	return sxy / math.Sqrt(sxx*syy)
+	return (sxy - sx*sy/fn) / math.Sqrt(vx*vy)
 }
 
 // LagOfMaxCorrelation returns the lag k in 0..maxLag at which the
