@@ -238,12 +238,26 @@ func normalizeWeights(w []float64) ([]float64, error) {
 func (p *prepared) composites(dst, w []float64) []float64 {
 	k := p.k
 	if p.noMissing {
-		// weightedMean's sums, in the same order, without the NaN tests.
+		// weightedMean's sums, in the same order, without the NaN tests,
+		// four stations at a time so that their additions overlap.
 		var den float64
 		for _, x := range w {
 			den += x
 		}
-		for s := range dst {
+		s := 0
+		for ; s+4 <= len(dst); s += 4 {
+			r := p.table[s*k : s*k+4*k]
+			r0, r1, r2, r3 := r[:k], r[k:2*k], r[2*k:3*k], r[3*k:]
+			var a0, a1, a2, a3 float64
+			for j, wj := range w {
+				a0 += float64(wj * r0[j])
+				a1 += float64(wj * r1[j])
+				a2 += float64(wj * r2[j])
+				a3 += float64(wj * r3[j])
+			}
+			dst[s], dst[s+1], dst[s+2], dst[s+3] = a0/den, a1/den, a2/den, a3/den
+		}
+		for ; s < len(dst); s++ {
 			var num float64
 			for j, v := range p.table[s*k : s*k+k] {
 				num += float64(w[j] * v)

@@ -133,8 +133,12 @@ func MonteCarlo(m Model, s Settings) (*MonteCarloResult, error) {
 	return monteCarlo[uint32](p, ws, s, samples)
 }
 
-// block is the number of samples ranked between histogram updates.
-const block = 64
+// blockSamples returns how many samples are ranked between histogram
+// updates: each update sweeps all n² counters, so the blocks are as long
+// as about 32 MiB of ranks allows (at least 64, at most 4096 samples).
+func blockSamples(n int) int {
+	return min(max((32<<20)/(4*n), 64), 4096)
+}
 
 func monteCarlo[C uint16 | uint32](p *prepared, ws *weightSampler, s Settings, samples int) (*MonteCarloResult, error) {
 	n := p.n
@@ -157,6 +161,7 @@ func monteCarlo[C uint16 | uint32](p *prepared, ws *weightSampler, s Settings, s
 		}
 	}
 	hist := make([]C, n*n)
+	block := min(blockSamples(n), samples)
 	ranks := make([]int32, block*n)
 	for b0 := 0; b0 < samples; b0 += block {
 		b1 := min(b0+block, samples)
@@ -175,7 +180,9 @@ func monteCarlo[C uint16 | uint32](p *prepared, ws *weightSampler, s Settings, s
 		if err := firstError(workers); err != nil {
 			return nil, err
 		}
-		// Count the ranks, each worker a range of stations.
+		// Count the ranks, each worker a range of stations. The cost is
+		// in bringing each station's counters in from memory, once per
+		// block.
 		for wi := range nw {
 			wg.Go(func() {
 				for st := wi * n / nw; st < (wi+1)*n/nw; st++ {
@@ -190,9 +197,15 @@ func monteCarlo[C uint16 | uint32](p *prepared, ws *weightSampler, s Settings, s
 	}
 
 	res.Stations = make([]StationRanks, n)
-	for st := range n {
-		res.Stations[st] = summarize(hist[st*n:st*n+n], samples, res.TopN, p.baseRanks[st], p.baseFinite[st])
+	var wg sync.WaitGroup
+	for wi := range nw {
+		wg.Go(func() {
+			for st := wi * n / nw; st < (wi+1)*n/nw; st++ {
+				res.Stations[st] = summarize(hist[st*n:st*n+n], samples, res.TopN, p.baseRanks[st], p.baseFinite[st])
+			}
+		})
 	}
+	wg.Wait()
 	res.Spearman = summarizeAgreement(res.SpearmanSamples)
 	res.Kendall = summarizeAgreement(res.KendallSamples)
 	return res, nil
