@@ -338,6 +338,7 @@ func (s *splitter) next() *block {
 		return &block{eof: true}
 	}
 	for {
+		s.skipSame()
 		line := s.line
 		rec, at, br, prob, ok := s.record()
 		if prob != nil || !ok {
@@ -382,6 +383,34 @@ func (s *splitter) next() *block {
 		s.pos, s.line = at, line
 		return s.cut(at)
 	}
+}
+
+// skipSame moves past the buffered lines that start with the current
+// block's station field, when that field is first, unquoted, and the lines
+// hold no quote: the common case, in a tight loop.
+func (s *splitter) skipSame() {
+	cur := s.cur
+	if s.bstart == s.pos || s.rd.lay.station != 0 || len(cur) == 0 || cur[0] == '"' {
+		return
+	}
+	if s.pos >= s.plainEnd {
+		return // record sets plainEnd
+	}
+	buf := s.buf[:s.plainEnd]
+	pos, line, k := s.pos, s.line, len(cur)
+	for {
+		rest := buf[pos:]
+		if len(rest) <= k || rest[k] != ',' || !bytes.Equal(rest[:k], cur) {
+			break
+		}
+		i := bytes.IndexByte(rest[k+1:], '\n')
+		if i < 0 {
+			break
+		}
+		pos += k + 2 + i
+		line++
+	}
+	s.pos, s.line = pos, line
 }
 
 // cut ends the current block at offset p and moves the rest of the buffer
