@@ -493,6 +493,7 @@ func (c *calc) feature(f feature) float64 {
 func (c *calc) bfi(q []float64) float64 {
 	var base, total float64
 	buf := c.buf(len(q))
+	pad := c.buf(len(q) + 2*max(c.e.cfg.Baseflow.Reflect, 30))
 	for i := 0; i < len(q); {
 		if math.IsNaN(q[i]) {
 			i++
@@ -504,7 +505,7 @@ func (c *calc) bfi(q []float64) float64 {
 		}
 		if j-i >= c.e.cfg.MinSegment {
 			seg := q[i:j]
-			bf := c.e.cfg.Baseflow.Baseflow(buf[:len(seg)], seg)
+			bf := c.e.cfg.Baseflow.filter(buf[:len(seg)], seg, pad)
 			for k, b := range bf {
 				base += b
 				total += seg[k]

@@ -2,6 +2,7 @@ package features
 
 import (
 	"math"
+	"slices"
 	"sync"
 
 	"rebound/index/calendar"
@@ -169,10 +170,16 @@ func quantileSelect(p float64, x []float64) float64 {
 
 // selectKth reorders x so that x[k] is its k-th smallest value, the values
 // before it no larger and those after it no smaller, and returns x[k]
-// (Hoare's selection with a median-of-three pivot).
+// (Hoare's selection with a median-of-three pivot; after 64 rounds, which
+// only inputs built to defeat the pivot reach, the rest is sorted, so the
+// worst case is O(n log n)).
 func selectKth(x []float64, k int) float64 {
 	lo, hi := 0, len(x)-1
-	for hi > lo {
+	for rounds := 0; hi > lo; rounds++ {
+		if rounds == 64 {
+			slices.Sort(x[lo : hi+1])
+			return x[k]
+		}
 		mid := lo + (hi-lo)/2
 		if x[mid] < x[lo] {
 			x[mid], x[lo] = x[lo], x[mid]
@@ -406,6 +413,12 @@ func (lh LyneHollick) Baseflow(dst, q []float64) []float64 {
 	if len(dst) != len(q) {
 		panic("features: slice length mismatch")
 	}
+	return lh.filter(dst, q, nil)
+}
+
+// filter is Baseflow with a scratch slice for the padded record, grown as
+// needed.
+func (lh LyneHollick) filter(dst, q, scratch []float64) []float64 {
 	alpha, passes, r := lh.Alpha, lh.Passes, lh.Reflect
 	if alpha == 0 {
 		alpha = 0.925
@@ -444,7 +457,7 @@ func (lh LyneHollick) Baseflow(dst, q []float64) []float64 {
 		return dst
 	}
 	m := n + 2*r
-	b := make([]float64, m)
+	b := slices.Grow(scratch[:0], m)[:m]
 	for i := range r {
 		b[i] = q[r-i]
 		b[r+n+i] = q[n-2-i]
@@ -486,8 +499,9 @@ func ThermalSensitivity(water, air []float64) float64 {
 	if len(water) != len(air) {
 		panic("features: slice length mismatch")
 	}
-	var sx, sy, sxx, sxy, n float64
-	var ws, as []float64
+	// One pass over the weekly points, shifted by the first of them.
+	var sx, sy, sxx, sxy, cx, cy float64
+	n := 0
 	for w := 0; w < len(water); w += 7 {
 		var sw, sa float64
 		k := 0
@@ -498,26 +512,27 @@ func ThermalSensitivity(water, air []float64) float64 {
 				k++
 			}
 		}
-		if k >= 5 {
-			ws = append(ws, sw/float64(k))
-			as = append(as, sa/float64(k))
+		if k < 5 {
+			continue
 		}
-	}
-	if len(ws) < 3 {
-		return math.NaN()
-	}
-	for i := range ws {
-		sx += as[i]
-		sy += ws[i]
+		x, y := sa/float64(k), sw/float64(k)
+		if n == 0 {
+			cx, cy = x, y
+		}
+		x, y = x-cx, y-cy
+		sx += x
+		sy += y
+		sxx += x * x
+		sxy += x * y
 		n++
 	}
-	mx, my := sx/n, sy/n
-	for i := range ws {
-		dx := as[i] - mx
-		sxx += dx * dx
-		sxy += dx * (ws[i] - my)
+	if n < 3 {
+		return math.NaN()
 	}
-	if sxx == 0 {
+	fn := float64(n)
+	sxx -= sx * sx / fn
+	sxy -= sx * sy / fn
+	if !(sxx > 0) {
 		return math.NaN()
 	}
 	return sxy / sxx
