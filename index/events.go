@@ -100,10 +100,13 @@ func ReadEvents(r io.Reader, name string) (*EventTable, []error) {
 	}
 	in := interner{}
 	sizeHint := int64(-1)
-	if f, ok := r.(interface{ Stat() (os.FileInfo, error) }); ok {
+	switch f := r.(type) {
+	case interface{ Stat() (os.FileInfo, error) }:
 		if fi, err := f.Stat(); err == nil && fi.Mode().IsRegular() {
 			sizeHint = fi.Size()
 		}
+	case interface{ Size() int64 }: // strings.Reader, bytes.Reader
+		sizeHint = f.Size()
 	}
 	for {
 		rec, err := cr.Read()

@@ -309,8 +309,7 @@ func fixedPercentile(w *workspace, x []float64, p float64) float64 {
 		}
 	}
 	w.pool = v
-	slices.Sort(v)
-	return Percentile(v, p)
+	return percentileInPlace(v, p)
 }
 
 // prefix returns the ID prefix of a kind.

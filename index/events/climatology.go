@@ -240,7 +240,11 @@ func (c Climate) compute(w *workspace, x []float64, start calendar.Date, doy []i
 			sum += v
 		}
 		cl.Mean[d] = sum / float64(len(pool))
-		if len(p) > 0 {
+		switch len(p) {
+		case 0:
+		case 1:
+			cl.Pct[0][d] = percentileInPlace(pool, p[0])
+		default:
 			slices.Sort(pool)
 			for k, q := range p {
 				cl.Pct[k][d] = Percentile(pool, q)

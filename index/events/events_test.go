@@ -10,6 +10,7 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
+	"pgregory.net/rapid"
 
 	"rebound/index/calendar"
 )
@@ -97,4 +98,22 @@ func TestPercentile(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestPercentileInPlace checks the selection-based percentile against the
+// sort-based one on random inputs with many ties.
+func TestPercentileInPlace(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		// Either few distinct values, so many ties, or nearly all distinct.
+		ties := rapid.SliceOfN(rapid.Map(rapid.IntRange(-20, 20), func(v int) float64 { return float64(v) / 4 }), 1, 400)
+		distinct := rapid.SliceOfN(rapid.Float64Range(-1e3, 1e3), 1, 400)
+		x := rapid.OneOf(ties, distinct).Draw(t, "x")
+		p := rapid.Float64Range(0, 100).Draw(t, "p")
+		s := slices.Clone(x)
+		slices.Sort(s)
+		want := Percentile(s, p)
+		if got := percentileInPlace(slices.Clone(x), p); got != want {
+			t.Fatalf("percentileInPlace(%v) = %v, want %v", p, got, want)
+		}
+	})
 }

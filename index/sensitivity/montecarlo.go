@@ -100,7 +100,8 @@ type Agreement struct {
 // reports each station's rank distribution and the agreement of each
 // sample's ranking with the base ranking.
 //
-// Sample i draws from rand.NewPCG(s.Seed, i), so results do not depend on
+// A weight whose base value is 0 stays 0 in every sample. Sample i draws
+// from rand.NewPCG(s.Seed, i), so results do not depend on
 // s.Workers or GOMAXPROCS. The rank distributions are streamed into
 // per-station rank histograms of n² counters, so their memory does not grow
 // with the number of samples; the per-sample correlations take 8 bytes a
@@ -114,6 +115,9 @@ func MonteCarlo(m Model, s Settings) (*MonteCarloResult, error) {
 	samples := s.samples()
 	if samples < 1 {
 		return nil, fmt.Errorf("sensitivity: %d Monte Carlo samples; want at least 1", samples)
+	}
+	if s.TopN < 0 {
+		return nil, fmt.Errorf("sensitivity: top and bottom bands of %d stations; want at least 1", s.TopN)
 	}
 	ws, err := newWeightSampler(p.w, s)
 	if err != nil {

@@ -251,6 +251,7 @@ func TestMonteCarloErrors(t *testing.T) {
 		{"samples", Settings{Samples: -5}, "sensitivity: -5 Monte Carlo samples; want at least 1"},
 		{"memory", Settings{MaxMemory: 1000}, "sensitivity: 100 stations need 20000 bytes of rank histograms, more than the 1000 bytes allowed (MaxMemory)"},
 		{"sampling", Settings{Sampling: 7}, "sensitivity: unknown sampling Sampling(?)"},
+		{"top band", Settings{TopN: -1}, "sensitivity: top and bottom bands of -1 stations; want at least 1"},
 	} {
 		t.Run(test.name, func(t *testing.T) {
 			_, err := MonteCarlo(m, test.s)
