@@ -240,6 +240,10 @@ func TestFromLong(t *testing.T) {
 	if len(want.Excluded) != 1 || want.Excluded[0] != (Exclusion{"ST0005", "water_temperature: no data"}) {
 		t.Errorf("excluded %v", want.Excluded)
 	}
+	if _, _, err := e.FromLong(bytes.NewReader(data), "synth", series.Options{Vars: opt.Vars[:2]}, 1); err == nil ||
+		err.Error() != `features: the features use "discharge", which the series options do not keep` {
+		t.Errorf("missing variable: %v", err)
+	}
 	// Values written with shortest round-trip formatting read back exactly.
 	got := e.FromStations(stations, 2)
 	if !slices.Equal(got.Stations, want.Stations) || !sameData(got.Data, want.Data) {

@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 
 	"rebound/index/series"
@@ -36,9 +37,14 @@ func (t *Table) Row(i int) []float64 {
 
 // FromLong reads a long-layout series file (see series.Map) and computes
 // the features of every station on up to workers goroutines (workers <= 0
-// means GOMAXPROCS). Rows come in file order. opt must keep the variables
-// the features use (Vars).
+// means GOMAXPROCS). Rows come in file order. opt must keep every variable
+// the features use (Extractor.Vars).
 func (e *Extractor) FromLong(r io.Reader, name string, opt series.Options, workers int) (*Table, series.Summary, error) {
+	for _, v := range e.vars {
+		if !slices.ContainsFunc(opt.Vars, func(o series.Var) bool { return o.Name == v }) {
+			return nil, series.Summary{}, fmt.Errorf("features: the features use %q, which the series options do not keep", v)
+		}
+	}
 	t := &Table{Names: e.Names()}
 	type out struct {
 		id     string
