@@ -16,7 +16,9 @@ func NewCondensed(n int) Condensed {
 	if n < 0 {
 		panic("clustering: negative item count")
 	}
-	return Condensed{N: n, D: make([]float64, n*(n-1)/2)}
+	d := make([]float64, n*(n-1)/2)
+	adviseHugePages(d)
+	return Condensed{N: n, D: d}
 }
 
 // Index returns the position in D of the distance between items i and j,

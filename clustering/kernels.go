@@ -75,12 +75,13 @@ func sumDistances(x, block []float64) float64 {
 	return t0 + t1
 }
 
-// nearest returns the row of centres (k rows of len(x) values) nearest to
-// x, the lowest-numbered on a tie, and its squared distance.
-func nearest(x, centres []float64) (c int, sq float64) {
+// nearest2 returns the row of centres nearest to x (the lowest-numbered on
+// a tie), its squared distance d1, and the squared distance d2 to the
+// second nearest (+Inf for a single centre).
+func nearest2(x, centres []float64) (c int, d1, d2 float64) {
 	d := len(x)
 	k := len(centres) / d
-	sq = math.Inf(1)
+	d1, d2 = math.Inf(1), math.Inf(1)
 	j := 0
 	for ; j+1 < k; j += 2 {
 		b0 := centres[j*d : (j+1)*d]
@@ -88,21 +89,28 @@ func nearest(x, centres []float64) (c int, sq float64) {
 		b0, b1 = b0[:len(x)], b1[:len(x)]
 		var s0, s1 float64
 		for i, v := range x {
-			d0, d1 := v-b0[i], v-b1[i]
-			s0 += d0 * d0
-			s1 += d1 * d1
+			e0, e1 := v-b0[i], v-b1[i]
+			s0 += e0 * e0
+			s1 += e1 * e1
 		}
-		if s0 < sq {
-			c, sq = j, s0
+		if s0 < d1 {
+			c, d1, d2 = j, s0, d1
+		} else if s0 < d2 {
+			d2 = s0
 		}
-		if s1 < sq {
-			c, sq = j+1, s1
+		if s1 < d1 {
+			c, d1, d2 = j+1, s1, d1
+		} else if s1 < d2 {
+			d2 = s1
 		}
 	}
 	if j < k {
-		if s := sqDist(x, centres[j*d:(j+1)*d]); s < sq {
-			c, sq = j, s
+		s0 := sqDist(x, centres[j*d:(j+1)*d])
+		if s0 < d1 {
+			c, d1, d2 = j, s0, d1
+		} else if s0 < d2 {
+			d2 = s0
 		}
 	}
-	return c, sq
+	return c, d1, d2
 }

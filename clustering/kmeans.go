@@ -70,10 +70,18 @@ type Result struct {
 	// Restart its number.
 	Iter, Restart int
 
+	// Converged says whether the restart kept met the convergence rule
+	// before MaxIter; if not, Warnings holds an error wrapping ErrMaxIter.
+	Converged bool
+
 	// Warnings lists conditions that make the result less trustworthy,
 	// such as a restart that stopped at MaxIter.
 	Warnings []error
 }
+
+// ErrMaxIter is wrapped by the warning of a k-means result whose best
+// restart stopped at MaxIter before converging.
+var ErrMaxIter = errors.New("k-means stopped at MaxIter before converging")
 
 // kmBlock is the number of rows per block of parallel work; the result
 // depends on it, never on the number of workers.
@@ -131,7 +139,6 @@ func (km KMeans) ClusterWeighted(x mat.Matrix, w []float64) (Result, error) {
 	}
 
 	best := Result{Inertia: math.Inf(1)}
-	var bestConverged bool
 	var repeats int
 	for r := range restarts {
 		rng := rand.New(rand.NewPCG(km.Seed, uint64(r)))
@@ -141,11 +148,11 @@ func (km KMeans) ClusterWeighted(x mat.Matrix, w []float64) (Result, error) {
 			best.Labels = append(best.Labels[:0], s.labels...)
 			best.Centers = mat.NewDense(km.K, d, append([]float64(nil), s.centres...))
 			best.Inertia, best.Iter, best.Restart = s.inertia, iter, r
-			bestConverged = converged
+			best.Converged = converged
 		}
 	}
-	if !bestConverged {
-		best.Warnings = append(best.Warnings, fmt.Errorf("k-means: the best of %d restarts stopped at MaxIter = %d iterations before converging", restarts, maxIter))
+	if !best.Converged {
+		best.Warnings = append(best.Warnings, fmt.Errorf("%w: the best of %d restarts ran MaxIter = %d iterations", ErrMaxIter, restarts, maxIter))
 	}
 	if repeats > 0 {
 		best.Warnings = append(best.Warnings, fmt.Errorf("k-means: fewer distinct rows than K = %d: %d centres repeat another", km.K, repeats))
@@ -192,6 +199,10 @@ type kmState struct {
 	centres    []float64 // k×d
 	labels     []int
 	near       []float64 // squared distance of each row to its centre
+	upper      []float64 // bound on the distance of each row to its centre
+	lower      []float64 // bound on the distance of each row to other centres
+	half       []float64 // half the gap from each centre to the nearest other
+	move       []float64 // how far each centre moved in the last update
 	inertia    float64
 	sums       []float64 // k×d weighted sums of the rows of each cluster
 	mass       []float64 // k weights per cluster
@@ -211,6 +222,10 @@ func newKMState(x []float64, n, d, k int, w []float64, workers int) *kmState {
 		centres:    make([]float64, k*d),
 		labels:     make([]int, n),
 		near:       make([]float64, n),
+		upper:      make([]float64, n),
+		lower:      make([]float64, n),
+		half:       make([]float64, k),
+		move:       make([]float64, k),
 		sums:       make([]float64, k*d),
 		mass:       make([]float64, k),
 		count:      make([]int, k),
@@ -361,47 +376,74 @@ func (s *kmState) distTo(dst, near []float64, c int, fresh bool) float64 {
 }
 
 // lloyd runs Lloyd's iterations from s.centres until convergence or
-// maxIter. It leaves s.labels assigned to the nearest of s.centres and
+// maxIter, with the bounds of Hamerly (2010, "Making k-means even faster",
+// SIAM SDM) to skip rows whose centre cannot have changed: an upper bound
+// on the distance to the row's own centre and a lower bound on the
+// distance to any other. A row is checked in full whenever the bounds do
+// not clear it by a relative margin of 1e-12, so the assignments are those
+// of plain Lloyd iterations (nearest centre, the lowest-numbered on a
+// tie). It leaves s.labels assigned to the nearest of s.centres and
 // s.inertia set accordingly.
 func (s *kmState) lloyd(maxIter int, tol float64) (iter int, converged bool) {
 	for i := range s.labels {
 		s.labels[i] = -1
 	}
-	s.assign()
+	s.assign(true)
 	for iter < maxIter {
 		shift := s.update()
 		iter++
-		moved := s.assign()
+		s.moveBounds()
+		moved := s.assign(false)
 		if moved == 0 || shift <= tol {
-			return iter, true
+			converged = true
+			break
 		}
 	}
-	return iter, false
+	s.inertia = s.sumNear()
+	return iter, converged
 }
 
+// margin is the relative slack by which Hamerly's bounds must clear a row
+// before it is skipped, to absorb rounding in the bounds.
+const margin = 1 - 1e-12
+
 // assign moves every row to its nearest centre (the lowest-numbered one on
-// a tie), and gathers the per-cluster sums, weights and counts and the
-// inertia. It returns the number of rows whose cluster changed.
-func (s *kmState) assign() (moved int) {
+// a tie), checking in full every row when full is true and otherwise only
+// the rows that the bounds do not clear. It gathers the per-cluster sums,
+// weights and counts and returns the number of rows whose cluster changed.
+func (s *kmState) assign(full bool) (moved int) {
 	d, k := s.d, s.k
+	if !full {
+		s.halfGaps()
+	}
 	nb := (s.n + kmBlock - 1) / kmBlock
 	chunks(s.n, kmBlock, s.workers, func(b, lo, hi int) {
 		sums, mass, count := s.blockSums[b], s.blockMass[b], s.blockCount[b]
 		clear(sums)
 		clear(mass)
 		clear(count)
-		var in float64
 		mv := 0
 		for i := lo; i < hi; i++ {
 			xi := s.x[i*d : (i+1)*d]
-			bc, best := nearest(xi, s.centres)
-			if s.labels[i] != bc {
-				s.labels[i] = bc
-				mv++
+			a := s.labels[i]
+			if full || s.upper[i] >= margin*max(s.half[a], s.lower[i]) {
+				check := full
+				if !full {
+					// Tighten the upper bound first; often that clears the row.
+					s.upper[i] = math.Sqrt(sqDist(xi, s.centres[a*d:(a+1)*d]))
+					check = s.upper[i] >= margin*max(s.half[a], s.lower[i])
+				}
+				if check {
+					c, d1, d2 := nearest2(xi, s.centres)
+					if c != a {
+						s.labels[i] = c
+						mv++
+					}
+					s.upper[i], s.lower[i] = math.Sqrt(d1), math.Sqrt(d2)
+				}
 			}
-			s.near[i] = best
+			bc := s.labels[i]
 			wi := s.weight(i)
-			in += wi * best
 			sc := sums[bc*d : (bc+1)*d]
 			for j, v := range xi {
 				sc[j] += wi * v
@@ -409,13 +451,11 @@ func (s *kmState) assign() (moved int) {
 			mass[bc] += wi
 			count[bc]++
 		}
-		s.blockIn[b] = in
 		s.blockMoved[b] = mv
 	})
 	clear(s.sums)
 	clear(s.mass)
 	clear(s.count)
-	s.inertia = 0
 	for b := range nb {
 		for j, v := range s.blockSums[b] {
 			s.sums[j] += v
@@ -424,21 +464,88 @@ func (s *kmState) assign() (moved int) {
 			s.mass[c] += s.blockMass[b][c]
 			s.count[c] += s.blockCount[b][c]
 		}
-		s.inertia += s.blockIn[b]
 		moved += s.blockMoved[b]
 	}
 	return moved
 }
 
+// halfGaps sets s.half[c] to half the distance from centre c to the
+// nearest other centre: a row closer than that to c is closer to c than to
+// any other centre.
+func (s *kmState) halfGaps() {
+	d := s.d
+	for c := range s.k {
+		s.half[c] = math.Inf(1)
+	}
+	for c := range s.k {
+		cc := s.centres[c*d : (c+1)*d]
+		for e := c + 1; e < s.k; e++ {
+			g := 0.5 * math.Sqrt(sqDist(cc, s.centres[e*d:(e+1)*d]))
+			s.half[c] = min(s.half[c], g)
+			s.half[e] = min(s.half[e], g)
+		}
+	}
+}
+
+// moveBounds widens the bounds of every row by the distances the centres
+// moved in the last update.
+func (s *kmState) moveBounds() {
+	far, next, fc := 0.0, 0.0, -1
+	for c, m := range s.move {
+		if m > far {
+			far, next, fc = m, far, c
+		} else if m > next {
+			next = m
+		}
+	}
+	for i, a := range s.labels {
+		s.upper[i] += s.move[a]
+		if a == fc {
+			s.lower[i] -= next
+		} else {
+			s.lower[i] -= far
+		}
+	}
+}
+
+// sumNear returns the weighted sum of squared distances from the rows to
+// their centres, added block by block in block order, and leaves those
+// distances in s.near.
+func (s *kmState) sumNear() float64 {
+	d := s.d
+	nb := (s.n + kmBlock - 1) / kmBlock
+	chunks(s.n, kmBlock, s.workers, func(b, lo, hi int) {
+		var t float64
+		for i := lo; i < hi; i++ {
+			a := s.labels[i]
+			v := sqDist(s.x[i*d:(i+1)*d], s.centres[a*d:(a+1)*d])
+			s.near[i] = v
+			t += s.weight(i) * v
+		}
+		s.blockIn[b] = t
+	})
+	var t float64
+	for _, v := range s.blockIn[:nb] {
+		t += v
+	}
+	return t
+}
+
 // update sets each centre to the weighted mean of its rows, refilling an
 // empty cluster with the row farthest from its own centre (taken from a
 // cluster of more than one row, the lowest-numbered row on a tie). It
-// returns the summed squared movement of the centres.
+// records how far each centre moved and returns the summed squared
+// movement.
 func (s *kmState) update() (shift float64) {
 	d := s.d
+	repaired := false
 	for c := range s.k {
 		if s.count[c] > 0 && s.mass[c] > 0 {
 			continue
+		}
+		if !repaired {
+			s.sumNear() // exact distances to the current centres
+			repaired = true
 		}
 		far, fi := -1.0, -1
 		for i, v := range s.near {
@@ -461,17 +568,22 @@ func (s *kmState) update() (shift float64) {
 		s.mass[c], s.count[c] = wi, 1
 		s.labels[fi] = c
 		s.near[fi] = -1 // not to be taken again
+		s.upper[fi], s.lower[fi] = math.Inf(1), 0
 	}
 	for c := range s.k {
+		s.move[c] = 0
 		if s.mass[c] <= 0 {
 			continue
 		}
 		cc := s.centres[c*d : (c+1)*d]
+		var m float64
 		for j := range cc {
 			v := s.sums[c*d+j] / s.mass[c]
-			shift += (v - cc[j]) * (v - cc[j])
+			m += (v - cc[j]) * (v - cc[j])
 			cc[j] = v
 		}
+		s.move[c] = math.Sqrt(m)
+		shift += m
 	}
 	return shift
 }

@@ -1,6 +1,7 @@
 package clustering
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"runtime"
@@ -233,6 +234,16 @@ func TestKMeansEdgeCases(t *testing.T) {
 		}
 		if r.Inertia != 0 || len(r.Warnings) == 0 {
 			t.Errorf("inertia %v, warnings %v: want 0 and a warning", r.Inertia, r.Warnings)
+		}
+	})
+	t.Run("MaxIter", func(t *testing.T) {
+		x, _ := readIris(t, "iris.csv")
+		r, err := KMeans{K: 3, MaxIter: 1, Restarts: 2}.Cluster(x)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if r.Converged || len(r.Warnings) != 1 || !errors.Is(r.Warnings[0], ErrMaxIter) {
+			t.Errorf("converged %v, warnings %v: want a warning wrapping ErrMaxIter", r.Converged, r.Warnings)
 		}
 	})
 	t.Run("weights", func(t *testing.T) {

@@ -1,0 +1,6 @@
+//go:build !linux
+
+package clustering
+
+// adviseHugePages does nothing outside Linux.
+func adviseHugePages([]float64) {}
