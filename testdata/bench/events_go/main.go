@@ -3,7 +3,7 @@
 // events_pandas.py on the same file. It is not part of the build (it lives
 // under testdata) and not run in CI.
 //
-//	go run ./testdata/bench/events_go [-workers n] [-out dir] SERIES.csv
+//	go run ./testdata/bench/events_go [-workers n] [-out dir] [-cpuprofile f] SERIES.csv
 package main
 
 import (
@@ -14,6 +14,7 @@ import (
 	"os"
 	"path/filepath"
 	"runtime"
+	"runtime/pprof"
 	"strconv"
 	"sync"
 	"time"
@@ -31,13 +32,27 @@ type result struct {
 func main() {
 	workers := flag.Int("workers", runtime.GOMAXPROCS(0), "goroutines")
 	out := flag.String("out", ".", "directory for events_go.csv and criteria_go.csv")
+	prof := flag.String("cpuprofile", "", "write a CPU profile to this file")
 	flag.Parse()
+	if *prof != "" {
+		pf, err := os.Create(*prof)
+		if err != nil {
+			fmt.Fprintln(os.Stderr, err)
+			os.Exit(1)
+		}
+		if err := pprof.StartCPUProfile(pf); err != nil {
+			fmt.Fprintln(os.Stderr, err)
+			os.Exit(1)
+		}
+		defer pprof.StopCPUProfile()
+	}
 	if flag.NArg() != 1 {
 		fmt.Fprintln(os.Stderr, "usage: events_go [-workers n] [-out dir] SERIES.csv")
 		os.Exit(2)
 	}
 	if err := run(flag.Arg(0), *out, *workers); err != nil {
 		fmt.Fprintln(os.Stderr, err)
+		pprof.StopCPUProfile()
 		os.Exit(1)
 	}
 }
