@@ -72,7 +72,7 @@
 //     three passes (forward, backward, forward), as recommended by Nathan &
 //     McMahon (1990) and Ladson et al. (2013). Each pass computes quickflow
 //     f_k = α f_{k−1} + (1+α)/2 (x_k − x_{k−1}) and baseflow x_k − f_k where
-//     f_k > 0, otherwise x_k. Against the warm-up of the filter, 30 values
+//     f_k > 0, otherwise x_k (and never below 0). Against the warm-up of the filter, 30 values
 //     are mirrored at each end of the record before filtering and dropped
 //     afterwards (Ladson et al. 2013); the first pass starts with quickflow
 //     equal to the first padded flow and each later pass with the baseflow
@@ -88,9 +88,9 @@
 // These need both "water_temperature" and "air_temperature" (°C).
 //
 //   - thermal_sensitivity: the ordinary least-squares slope of weekly mean
-//     water temperature on weekly mean air temperature (°C per °C; after
-//     Kelleher et al. 2012, with weekly means as in Mohseni, Stefan &
-//     Erickson 1998). Weeks are consecutive 7-day blocks from the first day
+//     water temperature on weekly mean air temperature (°C per °C), the
+//     "thermal sensitivity" of Kelleher et al. (2012; cited from memory),
+//     with weekly means as in Mohseni, Stefan & Erickson (1998). Weeks are consecutive 7-day blocks from the first day
 //     of the station's record; a week counts when at least 5 of its days
 //     have both temperatures, and its means are over those days. Undefined
 //     with fewer than 3 such weeks.
