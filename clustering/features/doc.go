@@ -74,10 +74,9 @@
 //     f_k = α f_{k−1} + (1+α)/2 (x_k − x_{k−1}) and baseflow x_k − f_k where
 //     f_k > 0, otherwise x_k (and never below 0). Against the warm-up of
 //     the filter, 30 values are mirrored at each end of the record before
-//     filtering and dropped
-//     afterwards (Ladson et al. 2013); the first pass starts with quickflow
-//     equal to the first padded flow and each later pass with the baseflow
-//     left at its starting end. A missing day breaks the filter: it runs on
+//     filtering and dropped afterwards (Ladson et al. 2013); the first pass
+//     starts with quickflow equal to the first padded flow and each later
+//     pass with the baseflow left at its starting end. A missing day breaks the filter: it runs on
 //     each run of consecutive days with flow of at least Config.MinSegment
 //     days (60 by default), and shorter runs are left out of both sums.
 //   - q90_q50: the low-flow ratio Q90/Q50, where Q90 is the flow exceeded
