@@ -69,8 +69,8 @@ type Response struct {
 	// record or the day before the next disturbance. It keeps its sign. NaN
 	// when the window has no value.
 	PeakDeparture float64
-	PeakDate      calendar.Date
-	TimeToPeak    int // PeakDate − Start in days; -1 when PeakDeparture is NaN
+	PeakDate      calendar.Date // Start when PeakDeparture is NaN
+	TimeToPeak    int           // PeakDate − Start in days; -1 when PeakDeparture is NaN
 	// MeanDeparture and CumDeparture are the mean and the sum (units·d)
 	// of the departures from Start to End, over the Observed days with a
 	// value.
@@ -101,8 +101,10 @@ type Result struct {
 // Analyze finds the disturbances of station s, adds the user events that
 // name s or no station, and measures the response of every water-quality
 // variable of o.Responses that s records. It returns an error only when o
-// is invalid; anything the data cause (a short record, a missing driver)
-// is a warning in the result.
+// is invalid; anything the data cause (a short record, a missing driver,
+// a user event outside the record, which is left out, or partly outside,
+// which is cut to the record) is a warning in the result. Every variable
+// of s must hold s.Days values.
 func Analyze(s *series.Station, users []UserEvent, o Options) (Result, error) {
 	var a Analyzer
 	return a.Analyze(s, users, o)
@@ -240,8 +242,17 @@ func (a *Analyzer) Analyze(s *series.Station, users []UserEvent, o Options) (Res
 		}
 	}
 	block := make([]Response, 0, nv*len(res.Events))
+	// stop[k] is the day the disturbance after event k starts: the first
+	// event to start after k ends, or the end of the record.
+	stop := make([]int, len(res.Events))
 	for k := range res.Events {
-		res.Events[k].Responses = block[k*nv : k*nv : (k+1)*nv]
+		e := &res.Events[k]
+		e.Responses = block[k*nv : k*nv : (k+1)*nv]
+		next := sort.Search(len(res.Events), func(j int) bool { return res.Events[j].Start > e.End })
+		stop[k] = n
+		if next < len(res.Events) {
+			stop[k] = s.Index(res.Events[next].Start)
+		}
 	}
 	for _, v := range o.Responses {
 		x := s.Var(v.Name)
@@ -264,13 +275,7 @@ func (a *Analyzer) Analyze(s *series.Station, users []UserEvent, o Options) (Res
 		}
 		for k := range res.Events {
 			e := &res.Events[k]
-			// The next disturbance is the first to start after e ends.
-			next := sort.Search(len(res.Events), func(j int) bool { return res.Events[j].Start > e.End })
-			stop := n
-			if next < len(res.Events) {
-				stop = s.Index(res.Events[next].Start)
-			}
-			r := respond(anom, s.Index(e.Start), s.Index(e.End), stop, v.Harmful, tol, o.Recovery)
+			r := respond(anom, s.Index(e.Start), s.Index(e.End), stop[k], v.Harmful, tol, o.Recovery)
 			r.Variable = v.Name
 			r.PeakDate = e.Start + calendar.Date(max(r.TimeToPeak, 0))
 			e.Responses = append(e.Responses, r)

@@ -306,6 +306,11 @@ func TestAnalyzeDroughtOptions(t *testing.T) {
 		// 6-day halves stay.
 		{"pool 0", func(o *Options) { o.Drought.Pool = 0 },
 			[]string{"DR-2010-08-01", "DR-2012-07-01", "DR-2012-07-11", "DR-2016-02-27"}},
+		// By hand: the daily 20th percentile is 9 m³/s on every calendar
+		// day, as the fixed one is (no pool of 88 values holds more than 11
+		// planted low flows, below its 18th value), so the events agree.
+		{"daily threshold", func(o *Options) { o.Drought.Threshold = Daily },
+			[]string{"DR-2010-08-01", "DR-2012-07-01", "DR-2016-02-27"}},
 		// By hand: 14 < 0.3 × 80 removes the 2016 event; 36 stays.
 		{"minor by deficit", func(o *Options) { o.Drought.MinDeficitFraction = 0.3 },
 			[]string{"DR-2010-08-01", "DR-2012-07-01"}},
@@ -360,5 +365,25 @@ func TestValidate(t *testing.T) {
 				t.Errorf("got %q, want %q", got, tc.want)
 			}
 		})
+	}
+}
+
+// TestAnalyzeEmpty checks that stations with nothing in them give warnings,
+// not panics.
+func TestAnalyzeEmpty(t *testing.T) {
+	users := []UserEvent{{Kind: "spill", Start: date("2019-07-03"), End: date("2019-07-05")}}
+	for _, s := range []*series.Station{
+		{ID: "NONE", Start: date("2019-01-01")},
+		{ID: "EMPTY", Start: date("2019-01-01"), Vars: map[string][]float64{"air_temperature": {}, "discharge": {}, "water_temperature": {}}},
+		{ID: "NAN", Start: date("2019-01-01"), Days: 3, Vars: map[string][]float64{
+			"air_temperature": {math.NaN(), math.NaN(), math.NaN()}, "discharge": {math.NaN(), math.NaN(), math.NaN()}}},
+	} {
+		r, err := Analyze(s, users, DefaultOptions())
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(r.Events) != 0 || len(r.Warnings) == 0 {
+			t.Errorf("%s: %d events, warnings %v; want none and some", s.ID, len(r.Events), r.Warnings)
+		}
 	}
 }

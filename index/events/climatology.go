@@ -289,7 +289,7 @@ func smooth(y *[366]float64, k int) {
 	}
 }
 
-// Daily sets dst[i] to curve[doy[i]] and returns dst; doy holds
+// daily sets dst[i] to curve[doy[i]] and returns dst; doy holds
 // DayOf366 − 1 of every day.
 func daily(dst []float64, curve *[366]float64, doy []int16) []float64 {
 	for i, d := range doy {
