@@ -21,6 +21,7 @@ func Default() *Config {
 		Seed: 1,
 		Inputs: Inputs{
 			RecordYearsColumn: "record_years",
+			FillGapDays:       2,
 		},
 		Variables: DefaultVariables(),
 		Normalization: Normalization{
@@ -35,15 +36,21 @@ func Default() *Config {
 		Missing:     Missing{Policy: Renormalize, MinEvents: 3},
 		Memory:      Memory{MinEvents: 5, Dryness: Fraction},
 		Output:      Output{Dir: "out", Print: 10},
+		Events:      DefaultEvents(),
+		Clustering:  DefaultClustering(),
+		Sensitivity: DefaultSensitivity(),
 	}
 }
 
 // DefaultVariables are the variables used when the file has no [[variable]].
 func DefaultVariables() []Variable {
 	return []Variable{
-		{Name: "water_temperature", Units: "°C", Harmful: Increase},
-		{Name: "specific_conductance", Units: "µS/cm", Harmful: Increase},
+		{Name: "water_temperature", Units: "degC", Harmful: Increase},
+		{Name: "specific_conductance", Units: "uS/cm", Harmful: Increase},
 		{Name: "dissolved_oxygen", Units: "mg/L", Harmful: Decrease},
+		{Name: "water_temperature_max", Units: "degC"},
+		{Name: "air_temperature", Units: "degC"},
+		{Name: "discharge", Units: "m3/s"},
 	}
 }
 
@@ -118,6 +125,17 @@ func Decode(text, file string) (*Config, []error) {
 	if len(cfg.Variables) == 0 {
 		cfg.Variables = DefaultVariables()
 	}
+	// Optional sections exist only when the file has them; [events] is
+	// also in force, with its defaults, when events are derived from series.
+	if !md.IsDefined("events") && !cfg.DeriveEvents() {
+		cfg.Events = nil
+	}
+	if !md.IsDefined("clustering") {
+		cfg.Clustering = nil
+	}
+	if !md.IsDefined("sensitivity") {
+		cfg.Sensitivity = nil
+	}
 	for i := range cfg.Indicators {
 		in := &cfg.Indicators[i]
 		if in.Transform == "" {
@@ -125,6 +143,9 @@ func Decode(text, file string) (*Config, []error) {
 		}
 		if in.Better == "" && in.Measure.FromEvents() {
 			in.Better = Lower
+		}
+		if in.Better == "" && in.Measure == CriterionM {
+			in.Better = defaultBetter(in.Statistic)
 		}
 	}
 	return cfg, errs
@@ -200,9 +221,6 @@ func (c *Config) Validate() []error {
 			bad(key+".name", "variable %q is defined twice", v.Name)
 		}
 		vars[v.Name] = true
-		if v.Harmful == "" {
-			bad(key+".harmful", "missing: say whether an \"increase\" or a \"decrease\" is harmful")
-		}
 	}
 
 	if len(c.Indicators) == 0 {
@@ -225,6 +243,8 @@ func (c *Config) Validate() []error {
 		switch in.Measure {
 		case "":
 			bad(key+".measure", "missing: want one of %s", quoteList(strs(Measures)))
+		case CriterionM:
+			// checked in validateEvents
 		case Attribute:
 			if in.Attribute == "" {
 				bad(key+".attribute", "missing: measure \"attribute\" needs the attribute column name")
@@ -250,6 +270,11 @@ func (c *Config) Validate() []error {
 			}
 			if (in.Measure == Magnitude || in.Measure == MemoryM) && len(in.Variables) != 1 {
 				bad(key+".variables", "measure %q compares departures, which have units: name exactly one variable, got %d", in.Measure, len(in.Variables))
+			}
+			if (in.Measure == Magnitude || in.Measure == MemoryM) && len(in.Variables) == 1 {
+				if v, ok := c.Variable(in.Variables[0]); ok && v.Harmful == "" {
+					bad(key+".variables", "variable %q has no harmful direction; set harmful = \"increase\" or \"decrease\" in its [[variable]] table", v.Name)
+				}
 			}
 			if in.Measure == Frequency && c.Inputs.RecordYears == 0 && c.Inputs.RecordYearsColumn == "" {
 				bad(key+".measure", "frequency needs a length of record: set inputs.record_years or inputs.record_years_column")
@@ -278,9 +303,15 @@ func (c *Config) Validate() []error {
 	if c.Weighting.Method == Explicit && len(c.Indicators) > 0 && weightSum == 0 {
 		bad("indicator.weight", "all weights are zero; at least one must be positive")
 	}
-	if needEvents && c.Inputs.Events == "" {
-		bad("inputs.events", "missing: event indicators need the events table")
+	if needEvents && c.Inputs.Events == "" && !c.HasSeries() {
+		bad("inputs.events", "missing: event indicators need the events table, or daily series (inputs.series) to derive it from")
 	}
+	if c.Normalization.Scope == ScopeCluster && c.Clustering == nil {
+		bad("normalization.scope", "scope \"cluster\" needs a [clustering] section")
+	}
+	c.validateEvents(bad)
+	c.validateClustering(bad)
+	c.validateSensitivity(bad)
 	if c.Weighting.Method == AHPW {
 		errs = append(errs, c.validateAHP(names)...)
 	}
@@ -348,6 +379,16 @@ func (c *Config) validateAHP(names map[string]bool) []error {
 		bad("weighting.ahp.max_cr", "want a positive consistency-ratio limit, got %g", a.MaxCR)
 	}
 	return errs
+}
+
+// defaultBetter is the direction of a criterion statistic: more reliable
+// and more resilient is better; more vulnerable and more days above is
+// worse.
+func defaultBetter(s Statistic) Better {
+	if s == Reliability || s == Resilience {
+		return Higher
+	}
+	return Lower
 }
 
 // NormMethod returns the normalisation method of indicator i (its own
@@ -419,12 +460,13 @@ func (c *Config) checkChoices(bad reportFunc) {
 		check(key+".transform", string(in.Transform), []string{string(NoTransform), string(Log), string(Sqrt)})
 		check(key+".better", string(in.Better), []string{string(Higher), string(Lower)})
 		check(key+".normalize", string(in.Normalize), strs(NormMethods))
+		check(key+".statistic", string(in.Statistic), strs(Statistics))
 		if in.Weight != nil && !(*in.Weight >= 0) {
 			bad(key+".weight", "want a number >= 0, got %g", float64(*in.Weight))
 		}
 	}
 	check("normalization.method", string(c.Normalization.Method), strs(NormMethods))
-	check("normalization.scope", string(c.Normalization.Scope), []string{string(ScopeAll), string(ScopeGroup)})
+	check("normalization.scope", string(c.Normalization.Scope), strs(Scopes))
 	check("weighting.method", string(c.Weighting.Method), []string{string(Explicit), string(Equal), string(AHPW)})
 	check("aggregation.method", string(c.Aggregation.Method), strs(AggMethods))
 	check("missing.policy", string(c.Missing.Policy), []string{string(Renormalize), string(Impute), string(ErrorPolicy)})

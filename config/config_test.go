@@ -13,7 +13,7 @@ func TestTemplateDecodesAndValidates(t *testing.T) {
 	for _, e := range errs {
 		t.Error(e)
 	}
-	if cfg.Title != "Resilience screening" || len(cfg.Indicators) != 4 || len(cfg.Variables) != 3 {
+	if cfg.Title != "Resilience screening" || len(cfg.Indicators) != 4 || len(cfg.Variables) != 6 {
 		t.Fatalf("template decoded to %+v", cfg)
 	}
 	if got := cfg.Indicators[0].Better; got != Lower {
@@ -25,7 +25,7 @@ func TestTemplateDecodesAndValidates(t *testing.T) {
 // documents every key.
 func TestTemplateCoversSchema(t *testing.T) {
 	// Keys shown commented out ("# target = 60.0") count as documented.
-	uncommented := regexp.MustCompile(`(?m)^# ?([a-z_]+ =)`).ReplaceAllString(Template(), "$1")
+	uncommented := regexp.MustCompile(`(?m)^# ?([a-z_]+ =|\[)`).ReplaceAllString(Template(), "$1")
 	have := map[string]bool{}
 	for k := range keyLines(uncommented) {
 		have[indexRE.ReplaceAllString(k, "")] = true
@@ -65,6 +65,7 @@ func TestDefaultsFromEmptyFile(t *testing.T) {
 	want := Default()
 	want.File = "empty.toml"
 	want.Lines = cfg.Lines
+	want.Events, want.Clustering, want.Sensitivity = nil, nil, nil // optional sections absent
 	if !reflect.DeepEqual(cfg, want) {
 		t.Fatalf("empty file: got %+v, want %+v", cfg, want)
 	}
@@ -91,7 +92,7 @@ func TestErrors(t *testing.T) {
 		{"wrong type", base + "[output]\nprint = \"ten\"\n",
 			[]string{`c.toml:6:9: output.print: want an integer, got a string`}},
 		{"bad choice names line, column and a suggestion", base + "[[indicator]]\nname = \"a\"\nmeasure = \"recovry\"\nweight = 1\n",
-			[]string{`c.toml:7:11: indicator[1].measure: want one of "magnitude", "recovery", "memory", "frequency", "attribute", got "recovry" (did you mean "recovery"?)`}},
+			[]string{`c.toml:7:11: indicator[1].measure: want one of "magnitude", "recovery", "memory", "frequency", "attribute", "criterion", got "recovry" (did you mean "recovery"?)`}},
 		{"negative weight", base + "[[indicator]]\nname = \"a\"\nmeasure = \"recovery\"\nweight = -0.5\n",
 			[]string{`c.toml:8:10: indicator[1].weight: want a number >= 0, got -0.5`}},
 		{"all weights zero", base + "[[indicator]]\nname = \"a\"\nmeasure = \"recovery\"\nweight = 0\n",

@@ -27,6 +27,18 @@ type Config struct {
 	Memory        Memory        `toml:"memory"`
 	Output        Output        `toml:"output"`
 
+	// Events configures deriving events from daily series ([events]);
+	// nil when the section is absent.
+	Events *Events `toml:"events"`
+	// Criteria are numeric water-temperature criteria ([[criterion]]).
+	Criteria []Criterion `toml:"criterion"`
+	// Clustering configures station clustering ([clustering]); nil when
+	// the section is absent.
+	Clustering *Clustering `toml:"clustering"`
+	// Sensitivity configures the robustness analysis ([sensitivity]); nil
+	// when the section is absent.
+	Sensitivity *Sensitivity `toml:"sensitivity"`
+
 	// File is the path the configuration was read from ("" when it was
 	// built in code). Relative input paths are resolved against its
 	// directory.
@@ -38,8 +50,24 @@ type Config struct {
 
 // Inputs names the input files.
 type Inputs struct {
-	// Events is the table of per-event departures (CSV).
+	// Events is the table of per-event departures (CSV). Leave it empty and
+	// name Series to derive the events from daily records instead.
 	Events string `toml:"events"`
+	// Series are daily station records in the long layout
+	// (station,date,variable,value[,qualifier]).
+	Series []string `toml:"series"`
+	// Wide are daily records in the wide layout (date,<station>,...), one
+	// file per variable.
+	Wide []WideInput `toml:"wide"`
+	// UserEvents lists disturbances the series do not show (kind,start,end
+	// [,station]).
+	UserEvents string `toml:"user_events"`
+	// ExcludeQualifiers drops series rows whose qualifier holds one of
+	// these codes (e.g. "P" provisional, "E" estimated).
+	ExcludeQualifiers []string `toml:"exclude_qualifiers"`
+	// FillGapDays is the longest gap in a daily series filled by linear
+	// interpolation; longer gaps stay missing.
+	FillGapDays int `toml:"fill_gap_days"`
 	// Attributes is the station and basin attribute table (CSV or XLSX).
 	Attributes string `toml:"attributes"`
 	// RecordYears is the length of record, in years, that frequency
@@ -51,13 +79,33 @@ type Inputs struct {
 	RecordYearsColumn string `toml:"record_years_column"`
 }
 
-// Variable describes one water-quality variable that events refer to.
+// WideInput is one wide-layout series file.
+type WideInput struct {
+	Path     string `toml:"path"`
+	Variable string `toml:"variable"`
+}
+
+// Variable describes one variable of the series or the events table.
 type Variable struct {
-	Name  string `toml:"name"`
+	Name string `toml:"name"`
+	// Units are the units of the values in the series files. Temperatures
+	// ("degC", "degF") are converted to °C and discharge ("m3/s", "ft3/s")
+	// to m³/s; other units pass through. The events table is always in
+	// these canonical units.
 	Units string `toml:"units"`
 	// Harmful says which direction of departure from normal is harmful:
 	// "increase" (warmer, saltier) or "decrease" (less dissolved oxygen).
+	// Empty for drivers such as air temperature and discharge, which are
+	// not water-quality responses.
 	Harmful Direction `toml:"harmful"`
+	// Tolerance is a fixed half-width of the recovery band, in the
+	// variable's units; 0 means events.recovery.tolerance_sd standard
+	// deviations of the station's normal departures.
+	Tolerance float64 `toml:"tolerance"`
+	// Range is the physically plausible range [low, high] in canonical
+	// units; series values outside it are dropped and counted. Empty means
+	// no check.
+	Range []float64 `toml:"range"`
 }
 
 // Indicator defines one column of the index.
@@ -87,13 +135,38 @@ type Indicator struct {
 	// Tolerance of Target score 1.
 	Target    *float64 `toml:"target"`
 	Tolerance float64  `toml:"tolerance"`
+	// Criterion and Statistic define measure "criterion": the name of a
+	// [[criterion]] and one of reliability, resilience, vulnerability or
+	// days_above (per year of record).
+	Criterion string    `toml:"criterion"`
+	Statistic Statistic `toml:"statistic"`
+}
+
+// Statistic is a performance statistic against a criterion.
+type Statistic string
+
+const (
+	Reliability   Statistic = "reliability"
+	Resilience    Statistic = "resilience"
+	Vulnerability Statistic = "vulnerability"
+	DaysAbove     Statistic = "days_above"
+)
+
+// Statistics lists every statistic.
+var Statistics = []Statistic{Reliability, Resilience, Vulnerability, DaysAbove}
+
+func (s *Statistic) UnmarshalTOML(v any) error {
+	t, err := text(v, "statistic")
+	*s = Statistic(t)
+	return err
 }
 
 // Normalization configures how raw indicator values become comparable.
 type Normalization struct {
 	Method NormMethod `toml:"method"`
-	// Scope is "all" (every station together) or "group" (peer groups from
-	// the attribute table's group column).
+	// Scope is "all" (every station together), "group" (peer groups from
+	// the attribute table's group column) or "cluster" (the clusters found
+	// by [clustering]).
 	Scope Scope `toml:"scope"`
 }
 
@@ -238,13 +311,15 @@ const (
 	MemoryM   Measure = "memory"
 	Frequency Measure = "frequency"
 	Attribute Measure = "attribute"
+	// CriterionM is a station's performance against a [[criterion]].
+	CriterionM Measure = "criterion"
 )
 
 // Measures lists every measure.
-var Measures = []Measure{Magnitude, Recovery, MemoryM, Frequency, Attribute}
+var Measures = []Measure{Magnitude, Recovery, MemoryM, Frequency, Attribute, CriterionM}
 
 // FromEvents reports whether the measure is computed from the events table.
-func (m Measure) FromEvents() bool { return m != Attribute && m != "" }
+func (m Measure) FromEvents() bool { return m != Attribute && m != CriterionM && m != "" }
 
 func (m *Measure) UnmarshalTOML(v any) error {
 	s, err := text(v, "measure")
@@ -304,9 +379,13 @@ func (n *NormMethod) UnmarshalTOML(v any) error {
 type Scope string
 
 const (
-	ScopeAll   Scope = "all"
-	ScopeGroup Scope = "group"
+	ScopeAll     Scope = "all"
+	ScopeGroup   Scope = "group"
+	ScopeCluster Scope = "cluster"
 )
+
+// Scopes lists every scope.
+var Scopes = []Scope{ScopeAll, ScopeGroup, ScopeCluster}
 
 func (s *Scope) UnmarshalTOML(v any) error {
 	c, err := text(v, "scope")

@@ -3,7 +3,9 @@ package config
 // Template returns a fully commented configuration. Every key appears with
 // its default value or an example, so the file documents itself; `rebound
 // init` writes it.
-func Template() string { return template }
+func Template() string {
+	return template + templateEvents + templateClustering + templateSensitivity
+}
 
 const template = `# rebound configuration
 #
@@ -26,7 +28,20 @@ seed = 1
 # Per-event departures: one row per station x event x water-quality variable.
 # Columns: station,event,kind,variable,start,end,peak_departure,recovery_days,
 #          recovered,antecedent_dryness
+# Leave it empty ("") and name daily series below to derive the events from
+# the records instead (see [events]).
 events = "events.csv"
+# Daily station records, long layout: station,date,variable,value[,qualifier],
+# sorted by station. Used to derive events, criteria and clustering features.
+series = []
+# Disturbances the series do not show: kind,start,end[,station].
+user_events = ""
+# Series rows whose qualifier holds one of these codes are dropped and
+# counted, e.g. ["P", "E"] for provisional and estimated values.
+exclude_qualifiers = []
+# Gaps in a daily series up to this many days are filled by linear
+# interpolation; longer gaps stay missing. Every filled day is counted.
+fill_gap_days = 2
 # Station and basin attributes (CSV, or the first sheet of an .xlsx file).
 # Columns: station,name,latitude,longitude, then numeric columns, and an
 # optional text column "group" for peer groups.
@@ -36,25 +51,54 @@ attributes = "stations.csv"
 # every station must have that column filled.
 record_years = 0
 record_years_column = "record_years"
+# Daily records in the wide layout (date,<station>,<station>,...), one file
+# per variable:
+# [[inputs.wide]]
+# path = "water_temperature.csv"
+# variable = "water_temperature"
 
-# Water-quality variables that events refer to. "harmful" is the direction of
-# a departure from normal that harms the river: warmer and saltier water are
-# harmful increases; less dissolved oxygen is a harmful decrease.
-# Without any [[variable]] table these three are used.
+# Variables of the series and the events table.
+#   units      units of the values in the series files: temperatures in "degC"
+#              or "degF" become °C, discharge in "m3/s" or "ft3/s" becomes
+#              m³/s; other units pass through. The events table is always in
+#              °C, m³/s and the other units as given.
+#   harmful    the direction of a departure from normal that harms the river:
+#              warmer and saltier water are harmful increases; less dissolved
+#              oxygen is a harmful decrease. Leave it out for drivers (air
+#              temperature, discharge), which are not water-quality responses.
+#   tolerance  a fixed half-width of the recovery band, in the variable's
+#              units; 0 means events.recovery.tolerance_sd standard deviations
+#   range      plausible [low, high] in °C, m³/s, ...; values outside are
+#              dropped from the series and counted
+# Without any [[variable]] table these six are used.
 [[variable]]
 name = "water_temperature"
-units = "°C"
+units = "degC"
 harmful = "increase"
+tolerance = 0.0
+range = [-1.0, 40.0]
 
 [[variable]]
 name = "specific_conductance"
-units = "µS/cm"
+units = "uS/cm"
 harmful = "increase"
 
 [[variable]]
 name = "dissolved_oxygen"
 units = "mg/L"
 harmful = "decrease"
+
+[[variable]]
+name = "water_temperature_max"
+units = "degC"
+
+[[variable]]
+name = "air_temperature"
+units = "degC"
+
+[[variable]]
+name = "discharge"
+units = "m3/s"
 
 # Indicators. Each one is a column of the score.
 #   measure   magnitude  median harmful peak departure over the events (units
@@ -68,6 +112,9 @@ harmful = "decrease"
 #                        spell (one variable; needs memory.min_events)
 #             frequency  events per year of record
 #             attribute  a numeric column of the attribute table
+#             criterion  performance against a [[criterion]] (needs series):
+#                        statistic = "reliability", "resilience",
+#                        "vulnerability" or "days_above" (per year)
 #   kinds, variables   filter the events a measure uses (empty = all)
 #   attribute          the column, for measure = "attribute"
 #   transform          "none", "log" or "sqrt", applied to attribute values
@@ -113,6 +160,14 @@ normalize = "minmax"
 # target = 60.0
 tolerance = 0.0
 
+# A criterion indicator (with a [[criterion]] named "rearing" below):
+# [[indicator]]
+# name = "rearing_reliability"
+# measure = "criterion"
+# criterion = "rearing"
+# statistic = "reliability"
+# weight = 0.1
+
 [normalization]
 # "minmax"  (x - min)/(max - min), turned round where lower is better
 # "zscore"  (x - mean)/sd with the population sd, turned round likewise; the
@@ -122,7 +177,8 @@ tolerance = 0.0
 #           the station farthest from it
 method = "minmax"
 # "all" normalises over every station; "group" within the peer groups of the
-# attribute table's group column.
+# attribute table's group column; "cluster" within the clusters found by
+# [clustering].
 scope = "all"
 
 [weighting]
@@ -171,4 +227,83 @@ dryness = "fraction"
 dir = "out"
 # How many stations from the top and from the bottom to print.
 print = 10
+`
+
+const templateEvents = `
+# Deriving events from daily series (used when inputs.events is empty and
+# inputs.series names the records). Defaults are shown.
+[events]
+# Reference period of the day-of-year normals (0 = first/last year of record)
+# and the fewest reference years with data (more than half the days).
+reference_first_year = 0
+reference_last_year = 0
+min_years = 5
+# Normals pool every value within +/- half_window_days of each calendar day
+# (an 11-day window for 5), then a smooth_days moving average (Hobday et al.
+# 2016). Departure = observed - normal.
+half_window_days = 5
+smooth_days = 31
+# Count record coverage by October-September water years.
+water_year = false
+
+[events.heatwave]
+# Air temperature strictly above its seasonally varying percentile for at
+# least min_days days; events max_gap_days or less apart are joined.
+enabled = true
+variable = "air_temperature"
+percentile = 90.0
+min_days = 3
+max_gap_days = 2
+
+[events.drought]
+# Threshold level method: discharge strictly below the percentile of the
+# reference flows (20 = Q80, the flow exceeded 80% of the time), "fixed" or
+# "daily" (by calendar day); runs pool_days or less apart are pooled; events
+# shorter than min_days, or with a deficit below min_deficit_fraction of the
+# station's largest, are dropped.
+enabled = true
+variable = "discharge"
+percentile = 20.0
+threshold = "fixed"
+min_days = 5
+pool_days = 5
+min_deficit_fraction = 0.0
+
+[events.flood]
+# Discharge strictly above the percentile (95 = Q5). Peaks closer than
+# separation_days, or between which the flow stays above trough x the
+# smaller peak, are one event.
+enabled = true
+variable = "discharge"
+percentile = 95.0
+separation_days = 7
+trough = 0.75
+
+[events.recovery]
+# The peak departure is sought from the event start to lag_days after its
+# end. Recovery is the first day after the end that starts run_days days in
+# a row within +/- tolerance_sd standard deviations of the normal departures
+# (or the variable's fixed tolerance). A gap longer than max_gap_days, the
+# end of the record or the next event first censors it.
+lag_days = 14
+run_days = 7
+tolerance_sd = 1.0
+max_gap_days = 3
+
+[events.dryness]
+# Antecedent dryness over the days before each event: "fraction" of days in
+# drought, or "index", the standardized cumulative flow deficit. Blank when
+# fewer than min_coverage of those days have a flow.
+measure = "fraction"
+days = 365
+min_coverage = 0.8
+
+# Water-temperature criteria for the 7-day statistic: the 7DADM (7-day
+# average of daily maxima, from water_temperature_max) or, where a station
+# has no daily maxima, the 7-day mean of daily means. A day fails when the
+# statistic is strictly greater than the limit. Use the criteria of the
+# standards that apply where you work; the value below is only an example.
+# [[criterion]]
+# name = "rearing"
+# limit = 16.0
 `

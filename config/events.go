@@ -1,0 +1,221 @@
+package config
+
+import "fmt"
+
+// Events configures how events are derived from daily series. Every field
+// has a default (DefaultEvents); the template documents each.
+type Events struct {
+	// Reference period for the day-of-year normals, in calendar years; 0
+	// means the first (last) year of the record.
+	ReferenceFirstYear int `toml:"reference_first_year"`
+	ReferenceLastYear  int `toml:"reference_last_year"`
+	// MinYears is the fewest reference years with data a normal needs.
+	MinYears int `toml:"min_years"`
+	// HalfWindow is w: values within ±w days of each calendar day are
+	// pooled (an 11-day window for w = 5).
+	HalfWindow int `toml:"half_window_days"`
+	// SmoothDays is the width of the moving average that smooths the
+	// normals (odd; 1 = none).
+	SmoothDays int `toml:"smooth_days"`
+
+	Heatwave HeatwaveRule `toml:"heatwave"`
+	Drought  DroughtRule  `toml:"drought"`
+	Flood    FloodRule    `toml:"flood"`
+	Recovery RecoveryRule `toml:"recovery"`
+	Dryness  DrynessRule  `toml:"dryness"`
+	// WaterYear counts coverage by October–September water years.
+	WaterYear bool `toml:"water_year"`
+}
+
+// HeatwaveRule configures heat-wave detection on air temperature.
+type HeatwaveRule struct {
+	Enabled    bool    `toml:"enabled"`
+	Variable   string  `toml:"variable"`
+	Percentile float64 `toml:"percentile"`
+	MinDays    int     `toml:"min_days"`
+	MaxGapDays int     `toml:"max_gap_days"`
+}
+
+// DroughtRule configures drought detection on discharge (threshold level
+// method).
+type DroughtRule struct {
+	Enabled            bool    `toml:"enabled"`
+	Variable           string  `toml:"variable"`
+	Percentile         float64 `toml:"percentile"`
+	Threshold          string  `toml:"threshold"`
+	MinDays            int     `toml:"min_days"`
+	PoolDays           int     `toml:"pool_days"`
+	MinDeficitFraction float64 `toml:"min_deficit_fraction"`
+}
+
+// FloodRule configures flood detection on discharge.
+type FloodRule struct {
+	Enabled        bool    `toml:"enabled"`
+	Variable       string  `toml:"variable"`
+	Percentile     float64 `toml:"percentile"`
+	SeparationDays int     `toml:"separation_days"`
+	Trough         float64 `toml:"trough"`
+}
+
+// RecoveryRule configures the response window and the recovery rule.
+type RecoveryRule struct {
+	LagDays     int     `toml:"lag_days"`
+	RunDays     int     `toml:"run_days"`
+	ToleranceSD float64 `toml:"tolerance_sd"`
+	MaxGapDays  int     `toml:"max_gap_days"`
+}
+
+// DrynessRule configures antecedent dryness.
+type DrynessRule struct {
+	Measure     DrynessScale `toml:"measure"`
+	Days        int          `toml:"days"`
+	MinCoverage float64      `toml:"min_coverage"`
+}
+
+// Criterion is a numeric water-temperature criterion for the 7-day
+// statistic (7DADM, or the 7-day mean of daily means where no daily maxima
+// exist). Criteria are the user's: local standards differ.
+type Criterion struct {
+	Name  string  `toml:"name"`
+	Limit float64 `toml:"limit"`
+}
+
+// DefaultEvents returns the event-derivation defaults.
+func DefaultEvents() *Events {
+	return &Events{
+		MinYears: 5, HalfWindow: 5, SmoothDays: 31,
+		Heatwave: HeatwaveRule{Enabled: true, Variable: "air_temperature", Percentile: 90, MinDays: 3, MaxGapDays: 2},
+		Drought:  DroughtRule{Enabled: true, Variable: "discharge", Percentile: 20, Threshold: "fixed", MinDays: 5, PoolDays: 5},
+		Flood:    FloodRule{Enabled: true, Variable: "discharge", Percentile: 95, SeparationDays: 7, Trough: 0.75},
+		Recovery: RecoveryRule{LagDays: 14, RunDays: 7, ToleranceSD: 1, MaxGapDays: 3},
+		Dryness:  DrynessRule{Measure: Fraction, Days: 365, MinCoverage: 0.8},
+	}
+}
+
+// DeriveEvents reports whether events come from daily series rather than an
+// events table.
+func (c *Config) DeriveEvents() bool { return c.Inputs.Events == "" && c.HasSeries() }
+
+// HasSeries reports whether the configuration names daily series.
+func (c *Config) HasSeries() bool { return len(c.Inputs.Series) > 0 || len(c.Inputs.Wide) > 0 }
+
+func (c *Config) validateEvents(bad reportFunc) {
+	if c.Inputs.FillGapDays < 0 {
+		bad("inputs.fill_gap_days", "want days >= 0, got %d", c.Inputs.FillGapDays)
+	}
+	for i, w := range c.Inputs.Wide {
+		key := fmt.Sprintf("inputs.wide[%d]", i+1)
+		if w.Path == "" {
+			bad(key+".path", "missing")
+		}
+		if _, ok := c.Variable(w.Variable); !ok {
+			bad(key+".variable", "variable %q is not defined in a [[variable]] table", w.Variable)
+		}
+	}
+	for i, v := range c.Variables {
+		if len(v.Range) != 0 && (len(v.Range) != 2 || !(v.Range[0] < v.Range[1])) {
+			bad(fmt.Sprintf("variable[%d].range", i+1), "want [low, high] with low < high, got %v", v.Range)
+		}
+		if v.Tolerance < 0 {
+			bad(fmt.Sprintf("variable[%d].tolerance", i+1), "want >= 0, got %g", v.Tolerance)
+		}
+	}
+	names := map[string]bool{}
+	for i, cr := range c.Criteria {
+		key := fmt.Sprintf("criterion[%d]", i+1)
+		if cr.Name == "" {
+			bad(key+".name", "missing")
+		}
+		if names[cr.Name] {
+			bad(key+".name", "criterion %q is defined twice", cr.Name)
+		}
+		names[cr.Name] = true
+	}
+	for i, in := range c.Indicators {
+		if in.Measure != CriterionM {
+			continue
+		}
+		key := fmt.Sprintf("indicator[%d]", i+1)
+		if !names[in.Criterion] {
+			bad(key+".criterion", "no [[criterion]] is named %q", in.Criterion)
+		}
+		if in.Statistic == "" {
+			bad(key+".statistic", "missing: want one of %s", quoteList(strs(Statistics)))
+		}
+		if !c.HasSeries() {
+			bad(key+".measure", "criterion indicators need daily series (inputs.series or inputs.wide)")
+		}
+	}
+	e := c.Events
+	if e == nil {
+		return
+	}
+	if e.MinYears < 1 {
+		bad("events.min_years", "want >= 1, got %d", e.MinYears)
+	}
+	if e.HalfWindow < 0 {
+		bad("events.half_window_days", "want >= 0, got %d", e.HalfWindow)
+	}
+	if e.SmoothDays < 1 || e.SmoothDays%2 == 0 {
+		bad("events.smooth_days", "want an odd number of days >= 1, got %d", e.SmoothDays)
+	}
+	if e.ReferenceFirstYear != 0 && e.ReferenceLastYear != 0 && e.ReferenceLastYear < e.ReferenceFirstYear {
+		bad("events.reference_last_year", "%d is before reference_first_year %d", e.ReferenceLastYear, e.ReferenceFirstYear)
+	}
+	pct := func(key string, p float64) {
+		if !(p > 0 && p < 100) {
+			bad(key, "want a percentile strictly between 0 and 100, got %g", p)
+		}
+	}
+	pct("events.heatwave.percentile", e.Heatwave.Percentile)
+	pct("events.drought.percentile", e.Drought.Percentile)
+	pct("events.flood.percentile", e.Flood.Percentile)
+	if e.Heatwave.MinDays < 1 {
+		bad("events.heatwave.min_days", "want >= 1, got %d", e.Heatwave.MinDays)
+	}
+	if e.Heatwave.MaxGapDays < 0 {
+		bad("events.heatwave.max_gap_days", "want >= 0, got %d", e.Heatwave.MaxGapDays)
+	}
+	if msg := choiceMsg(e.Drought.Threshold, []string{"fixed", "daily"}); msg != "" {
+		bad("events.drought.threshold", "%s", msg)
+	}
+	if e.Drought.MinDays < 1 {
+		bad("events.drought.min_days", "want >= 1, got %d", e.Drought.MinDays)
+	}
+	if e.Drought.PoolDays < 0 {
+		bad("events.drought.pool_days", "want >= 0, got %d", e.Drought.PoolDays)
+	}
+	if e.Drought.MinDeficitFraction < 0 || e.Drought.MinDeficitFraction >= 1 {
+		bad("events.drought.min_deficit_fraction", "want a fraction in [0, 1), got %g", e.Drought.MinDeficitFraction)
+	}
+	if e.Flood.SeparationDays < 1 {
+		bad("events.flood.separation_days", "want >= 1, got %d", e.Flood.SeparationDays)
+	}
+	if !(e.Flood.Trough > 0 && e.Flood.Trough <= 1) {
+		bad("events.flood.trough", "want a fraction in (0, 1], got %g", e.Flood.Trough)
+	}
+	if e.Recovery.LagDays < 0 {
+		bad("events.recovery.lag_days", "want >= 0, got %d", e.Recovery.LagDays)
+	}
+	if e.Recovery.RunDays < 1 {
+		bad("events.recovery.run_days", "want >= 1, got %d", e.Recovery.RunDays)
+	}
+	if !(e.Recovery.ToleranceSD > 0) {
+		bad("events.recovery.tolerance_sd", "want > 0, got %g", e.Recovery.ToleranceSD)
+	}
+	if e.Recovery.MaxGapDays < 0 {
+		bad("events.recovery.max_gap_days", "want >= 0, got %d", e.Recovery.MaxGapDays)
+	}
+	if msg := choiceMsg(string(e.Dryness.Measure), []string{string(Fraction), string(Index)}); msg != "" {
+		bad("events.dryness.measure", "%s", msg)
+	}
+	if e.Dryness.Days < 1 {
+		bad("events.dryness.days", "want >= 1, got %d", e.Dryness.Days)
+	}
+	if !(e.Dryness.MinCoverage > 0 && e.Dryness.MinCoverage <= 1) {
+		bad("events.dryness.min_coverage", "want a fraction in (0, 1], got %g", e.Dryness.MinCoverage)
+	}
+	if c.DeriveEvents() && e.Dryness.Measure != c.Memory.Dryness {
+		bad("memory.dryness", "the derived antecedent dryness is %q (events.dryness.measure); set memory.dryness to match", e.Dryness.Measure)
+	}
+}
