@@ -186,47 +186,9 @@ func runPipeline(cfgPath, out string, seed *uint64, all bool, stdout, stderr io.
 		return err
 	}
 	dir := r.OutputDir(out)
-	files := []struct {
-		name  string
-		write func(io.Writer) error
-	}{
-		{"ranking.csv", func(w io.Writer) error { return report.WriteRanking(w, r) }},
-		{"indicators.csv", func(w io.Writer) error { return report.WriteIndicators(w, r) }},
-	}
-	var names, paths []string
-	for _, f := range files {
-		names = append(names, f.name)
-		paths = append(paths, filepath.Join(dir, f.name))
-	}
-	names = append(names, "run.json")
-	paths = append(paths, filepath.Join(dir, "run.json"))
-	if err := r.CheckOutputs(paths); err != nil {
-		return err
-	}
-	man, err := report.BuildManifest(r, report.Meta{Version: version, RunDate: runDate(), Outputs: names})
+	names, err := writeOutputs(r, dir)
 	if err != nil {
 		return err
-	}
-	// Render everything before writing anything, so a failure leaves the
-	// output folder as it was.
-	rendered := make([][]byte, 0, len(paths))
-	for _, f := range files {
-		var buf bytes.Buffer
-		if err := f.write(&buf); err != nil {
-			return fmt.Errorf("%s: %w", f.name, err)
-		}
-		rendered = append(rendered, buf.Bytes())
-	}
-	var buf bytes.Buffer
-	if err := report.WriteManifest(&buf, man); err != nil {
-		return err
-	}
-	rendered = append(rendered, buf.Bytes())
-	for k, p := range paths {
-		data := rendered[k]
-		if err := report.WriteFile(p, func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
-			return err
-		}
 	}
 	report.PrintRanking(stdout, r, r.Config.Output.Print, all)
 	fmt.Fprintf(stdout, "\nWrote %s to %s", strings.Join(names, ", "), dir)

@@ -1,0 +1,88 @@
+package main
+
+import (
+	"bytes"
+	"fmt"
+	"io"
+	"path/filepath"
+
+	"rebound/cmd/rebound/internal/pipeline"
+	"rebound/cmd/rebound/internal/report"
+)
+
+// output is one rendered output file; Name may contain a folder
+// ("figures/scores.png").
+type output struct {
+	Name string
+	Data []byte
+}
+
+// renderer renders some of a run's outputs. Renderers run in order; each
+// sees the manifest, whose output list names every file of the run.
+type renderer func(r *pipeline.Run, man *report.Manifest) ([]output, error)
+
+// renderers lists what a run writes. The manifest (run.json) is rendered
+// last, after every other output is known.
+var renderers = []renderer{
+	renderTables,
+}
+
+func renderTables(r *pipeline.Run, _ *report.Manifest) ([]output, error) {
+	var outs []output
+	for _, t := range []struct {
+		name  string
+		write func(io.Writer, *pipeline.Run) error
+	}{
+		{"ranking.csv", report.WriteRanking},
+		{"indicators.csv", report.WriteIndicators},
+	} {
+		var buf bytes.Buffer
+		if err := t.write(&buf, r); err != nil {
+			return nil, fmt.Errorf("%s: %w", t.name, err)
+		}
+		outs = append(outs, output{t.name, buf.Bytes()})
+	}
+	return outs, nil
+}
+
+// writeOutputs renders every output in memory, then writes each file
+// atomically into dir. A failure while rendering leaves dir as it was.
+func writeOutputs(r *pipeline.Run, dir string) (names []string, err error) {
+	man, err := report.BuildManifest(r, report.Meta{Version: version, RunDate: runDate()})
+	if err != nil {
+		return nil, err
+	}
+	var outs []output
+	for _, render := range renderers {
+		o, err := render(r, man)
+		if err != nil {
+			return nil, err
+		}
+		outs = append(outs, o...)
+	}
+	for _, o := range outs {
+		names = append(names, o.Name)
+	}
+	names = append(names, "run.json")
+	man.Outputs = names
+	var buf bytes.Buffer
+	if err := report.WriteManifest(&buf, man); err != nil {
+		return nil, err
+	}
+	outs = append(outs, output{"run.json", buf.Bytes()})
+
+	paths := make([]string, len(outs))
+	for i, o := range outs {
+		paths[i] = filepath.Join(dir, filepath.FromSlash(o.Name))
+	}
+	if err := r.CheckOutputs(paths); err != nil {
+		return nil, err
+	}
+	for i, o := range outs {
+		data := o.Data
+		if err := report.WriteFile(paths[i], func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
+			return nil, err
+		}
+	}
+	return names, nil
+}
