@@ -314,7 +314,7 @@ func fixedPercentile(w *workspace, x []float64, p float64) float64 {
 		}
 	}
 	w.pool = v
-	return percentileInPlace(v, p)
+	return percentile(v, p)
 }
 
 // prefix returns the ID prefix of a kind.

@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"slices"
 	"strconv"
 
 	"rebound/index/calendar"
@@ -103,7 +102,9 @@ type Climatology struct {
 //     days of the next year), and 29 February enters the pools of its
 //     neighbours in leap years.
 //   - The mean is the mean of the pool and the percentile is its type-7
-//     percentile (see Percentile); missing values are left out.
+//     percentile (linear interpolation between order statistics, Hyndman &
+//     Fan 1996, as numpy.percentile computes it); missing values are left
+//     out.
 //   - 29 February (day 60) gets no pool of its own: its mean and
 //     percentiles are the average of those of days 59 and 61, in every
 //     year. Common years simply never use day 60.
@@ -240,15 +241,8 @@ func (c Climate) compute(w *workspace, x []float64, start calendar.Date, doy []i
 			sum += v
 		}
 		cl.Mean[d] = sum / float64(len(pool))
-		switch len(p) {
-		case 0:
-		case 1:
-			cl.Pct[0][d] = percentileInPlace(pool, p[0])
-		default:
-			slices.Sort(pool)
-			for k, q := range p {
-				cl.Pct[k][d] = Percentile(pool, q)
-			}
+		for k, q := range p {
+			cl.Pct[k][d] = percentile(pool, q)
 		}
 	}
 	cl.Mean[feb29] = 0.5*cl.Mean[feb29-1] + 0.5*cl.Mean[feb29+1]

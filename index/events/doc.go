@@ -3,8 +3,8 @@
 // water-quality departure from normal during and after each one.
 //
 // Analyze takes one station at a time; the functions it is built from
-// (Climate.Compute, HeatWaves, Droughts, Floods, Percentile) work on plain
-// slices and can be called on their own.
+// (Climate.Compute, HeatWaves, Droughts, Floods) work on plain slices and
+// can be called on their own.
 //
 // # Normal
 //

@@ -13,6 +13,7 @@ import (
 	"pgregory.net/rapid"
 
 	"rebound/index/calendar"
+	"rebound/index/robust"
 )
 
 // readCSV reads a CSV file with a header row and numeric or date columns;
@@ -65,8 +66,7 @@ func date(s string) calendar.Date {
 
 func TestPercentile(t *testing.T) {
 	lowflow := readCSV(t, "testdata/lowflow40.csv", 1)
-	slices.Sort(lowflow)
-	x8 := []float64{1, 1, 2, 3, 4, 5, 6.5, 9} // sorted 3,1,4,1,5,9,2,6.5
+	x8 := []float64{3, 1, 4, 1, 5, 9, 2, 6.5}
 	for _, tc := range []struct {
 		name string
 		x    []float64
@@ -93,27 +93,25 @@ func TestPercentile(t *testing.T) {
 		{"empty", nil, 50, math.NaN()},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			if got := Percentile(tc.x, tc.p); !close(got, tc.want, 1e-12) {
-				t.Errorf("Percentile(%v) = %v, want %v", tc.p, got, tc.want)
+			if got := percentile(slices.Clone(tc.x), tc.p); !close(got, tc.want, 1e-12) {
+				t.Errorf("percentile(%v) = %v, want %v", tc.p, got, tc.want)
 			}
 		})
 	}
 }
 
-// TestPercentileInPlace checks the selection-based percentile against the
-// sort-based one on random inputs with many ties.
-func TestPercentileInPlace(t *testing.T) {
+// TestPercentileProperty checks the selection-based percentile against
+// the sort-based type-7 quantile of package robust on random inputs.
+func TestPercentileProperty(t *testing.T) {
 	rapid.Check(t, func(t *rapid.T) {
 		// Either few distinct values, so many ties, or nearly all distinct.
 		ties := rapid.SliceOfN(rapid.Map(rapid.IntRange(-20, 20), func(v int) float64 { return float64(v) / 4 }), 1, 400)
 		distinct := rapid.SliceOfN(rapid.Float64Range(-1e3, 1e3), 1, 400)
 		x := rapid.OneOf(ties, distinct).Draw(t, "x")
 		p := rapid.Float64Range(0, 100).Draw(t, "p")
-		s := slices.Clone(x)
-		slices.Sort(s)
-		want := Percentile(s, p)
-		if got := percentileInPlace(slices.Clone(x), p); got != want {
-			t.Fatalf("percentileInPlace(%v) = %v, want %v", p, got, want)
+		want := robust.Quantile(x, p/100)
+		if got := percentile(slices.Clone(x), p); !close(got, want, 1e-12) {
+			t.Fatalf("percentile(%v) = %v, want %v", p, got, want)
 		}
 	})
 }
