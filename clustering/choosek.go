@@ -61,7 +61,9 @@ type KTable struct {
 
 // ChooseK tabulates the silhouette, Calinski–Harabasz and Davies–Bouldin
 // indices of k-means and of each linkage in s.Linkages for k from s.Min to
-// s.Max, and picks k for each method by the highest silhouette. It returns
+// s.Max, and picks k for each method by the highest silhouette. The exact
+// silhouette dominates the cost, O(n²·d) for every k and method: about a
+// second per row of a table at 20,000 rows of 10 features. It returns
 // an error for NaN or ±Inf in x, fewer than 3 rows, a range with Min < 2 or
 // Min > Max, or an error of a clustering.
 func ChooseK(x mat.Matrix, s KSearch) ([]KTable, error) {

@@ -12,9 +12,12 @@ import (
 
 // KMeans holds the settings of k-means clustering: k-means++ seeding
 // (Arthur & Vassilvitskii 2007, "k-means++: the advantages of careful
-// seeding", SODA) followed by Lloyd's iterations (Lloyd 1982), restarted
-// several times, keeping the restart with the lowest inertia. The zero
-// value of every field but K selects a default.
+// seeding", SODA) followed by Lloyd's iterations (Lloyd 1982, "Least
+// squares quantization in PCM", IEEE Trans. Inf. Theory 28:129–137),
+// sped up by Hamerly's (2010) bounds, restarted several times, keeping the
+// restart with the lowest inertia (the lowest-numbered restart on a tie).
+// An empty cluster is refilled with the row farthest from its centre. The
+// zero value of every field but K selects a default.
 type KMeans struct {
 	// K is the number of clusters, 1 <= K <= number of rows.
 	K int
@@ -59,7 +62,7 @@ type Result struct {
 	// Centers holds the K centres, one per row, in label order.
 	Centers *mat.Dense
 
-	// Sizes holds the number of rows in each cluster.
+	// Sizes holds the number of rows in each cluster (rows, not weights).
 	Sizes []int
 
 	// Inertia is the sum over rows of the (weighted) squared Euclidean

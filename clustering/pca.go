@@ -15,12 +15,14 @@ type PCA struct {
 	Scores *mat.Dense
 	// Loadings holds the unit direction of each component in a column,
 	// d×c. Each direction is signed so that its largest element in
-	// absolute value (the first, on a tie) is positive.
+	// absolute value is positive (the first of exactly equal ones, which
+	// rounding makes rare).
 	Loadings *mat.Dense
 	// Variance holds the variance of each component's scores (divisor
 	// n−1), in decreasing order.
 	Variance []float64
-	// Explained holds each component's share of the total variance.
+	// Explained holds each component's share of the total variance (NaN
+	// when all rows are equal).
 	Explained []float64
 }
 

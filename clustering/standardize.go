@@ -1,6 +1,7 @@
 package clustering
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"slices"
@@ -75,6 +76,9 @@ func (s *Scale) UnmarshalText(b []byte) error {
 // that size, or Standardize panics. dst may be x itself.
 func Standardize(dst *mat.Dense, x mat.Matrix, how Scale) (center, scale []float64, err error) {
 	n, d := x.Dims()
+	if n == 0 || d == 0 {
+		return nil, nil, errors.New("clustering: nothing to standardise: no rows or no columns")
+	}
 	if how != ZScore && how != Robust {
 		return nil, nil, fmt.Errorf("clustering: unknown scale %d", int(how))
 	}

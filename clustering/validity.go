@@ -151,6 +151,12 @@ func WithinSS(x mat.Matrix, labels []int) float64 {
 		panic("clustering: labels length mismatch")
 	}
 	cent, _ := centroids(data, d, labels)
+	return withinSS(data, d, labels, cent)
+}
+
+// withinSS returns the summed squared distance of each row to the centroid
+// of its cluster, cent.
+func withinSS(data []float64, d int, labels []int, cent []float64) float64 {
 	var w float64
 	for i, l := range labels {
 		w += sqDist(data[i*d:(i+1)*d], cent[l*d:(l+1)*d])
@@ -182,10 +188,8 @@ func CalinskiHarabasz(x mat.Matrix, labels []int) float64 {
 	for j := range mean {
 		mean[j] /= float64(n)
 	}
-	var w, b float64
-	for i, l := range labels {
-		w += sqDist(data[i*d:(i+1)*d], cent[l*d:(l+1)*d])
-	}
+	w := withinSS(data, d, labels, cent)
+	var b float64
 	for c, m := range counts {
 		if m > 0 {
 			b += float64(m) * sqDist(cent[c*d:(c+1)*d], mean)
