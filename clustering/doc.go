@@ -8,7 +8,7 @@
 //     population standard deviation, or median and MAD × 1.4826.
 //   - KMeans: k-means++ seeding (Arthur & Vassilvitskii 2007) in its greedy
 //     form, Lloyd's iterations, several restarts; optionally weighted.
-//   - Agglomerate: single, complete, average (UPGMA) and Ward (1963)
+//   - Agglomerate: single, complete, average (UPGMA) and Ward (Ward 1963, J. Am. Stat. Assoc. 58:236–244)
 //     linkage, by the nearest-neighbour chain and by Prim's minimum
 //     spanning tree (Müllner 2011, arXiv:1109.2378), in O(n²) time and one
 //     condensed distance matrix of memory. A Dendrogram follows scipy's

@@ -107,3 +107,15 @@ func BenchmarkSilhouette(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkTwoStage: Ward linkage of 50,000 rows by way of 1,000 k-means
+// groups (the defaults); plain Ward would need 10 GB of distances.
+func BenchmarkTwoStage(b *testing.B) {
+	x := mixture(50000, 10, 8, 1)
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := (TwoStage{}).Tree(x, Ward); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
