@@ -62,8 +62,9 @@
 //
 // # Missing data
 //
-// Values are NaN where missing. Gaps should be filled beforehand where
-// interpolation is defensible; remaining NaN never count as exceedances,
+// Values are NaN where missing. Short gaps should be filled beforehand
+// where interpolation is defensible (series.FillGaps); Analyze fills
+// nothing. Remaining NaN never count as exceedances,
 // are left out of means and sums, break recovery runs and, when long,
 // censor recovery.
 package events
