@@ -50,8 +50,9 @@
 // the days from the end of the event to the first day of 7 consecutive
 // days within ±1 standard deviation of the reference-period departures.
 // Recovery is right-censored, with a reason, when the record ends, a data
-// gap longer than 3 days intervenes or the next disturbance starts first.
-// See Response for the exact day counts.
+// gap longer than 3 days intervenes or the next disturbance starts first:
+// the first event of any kind, detected or listed, that starts after this
+// one ends. See Response for the exact day counts.
 //
 // # Antecedent dryness
 //
