@@ -27,7 +27,7 @@ func computeFixture(t *testing.T, eventsCSV string, cfg *config.Config) (*Raw, [
 	if errs != nil {
 		t.Fatal(errs)
 	}
-	return Compute(evs, attrs, cfg)
+	return Compute(evs, attrs, cfg, nil)
 }
 
 func weight(x float64) *config.Weight { w := config.Weight(x); return &w }

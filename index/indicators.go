@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"strconv"
 	"strings"
 
 	"rebound/attributes"
@@ -58,13 +59,34 @@ func (w *Warning) Error() string {
 	return "station " + w.Station + ": " + w.Indicator + ": " + w.Msg
 }
 
+// CriterionStats is a station's performance against one criterion, from
+// its daily record (see package index/criteria).
+type CriterionStats struct {
+	Reliability   float64 // share of days with a 7-day value that meet the criterion
+	Resilience    float64 // F→S transitions per failure day
+	Vulnerability float64 // mean of each failure event's largest excess, °C
+	DaysAbove     float64 // failure days per year of record
+	Note          string  // why the values are undefined, when they are
+}
+
+// Series holds what the daily records say about each station, for the
+// indicators that need them. Nil when the run has no series.
+type Series struct {
+	// Criteria maps station → criterion name → performance. A station
+	// without an entry has no usable record.
+	Criteria map[string]map[string]CriterionStats
+	// Missing maps a station with no daily record to the reason.
+	Missing map[string]string
+}
+
 // Compute derives the raw indicator values for every station of the
-// attribute table from the events and the attributes. It checks what only
-// the two tables together can show (events for unknown stations, duplicate
-// rows, dryness outside its scale) and returns every such problem; the
-// result is usable only when there are none. events may be nil when no
-// indicator is computed from events.
-func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config) (*Raw, []error) {
+// attribute table from the events, the attributes and, for criterion
+// indicators, the daily series. It checks what only the tables together can
+// show (events for unknown stations, duplicate rows, dryness outside its
+// scale) and returns every such problem; the result is usable only when
+// there are none. events may be nil when no indicator is computed from
+// events, and ser when none needs series.
+func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, ser *Series) (*Raw, []error) {
 	var errs tabular.List
 	n := len(attrs.Stations)
 	raw := &Raw{
@@ -157,7 +179,14 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config) (*
 		evs := byStation[i]
 		raw.Events[i] = countDistinct(evs)
 		for j, ind := range cfg.Indicators {
-			v, note, fb := indicator(ind, evs, attrCols[j], i, recordYears, cfg)
+			var v float64
+			var note string
+			var fb bool
+			if ind.Measure == config.CriterionM {
+				v, note = criterionValue(ind, ser, raw.Stations[i])
+			} else {
+				v, note, fb = indicator(ind, evs, attrCols[j], i, recordYears, cfg)
+			}
 			raw.Values[i][j], raw.Notes[i][j], raw.Fallback[i][j] = v, note, fb
 		}
 	}
@@ -232,6 +261,38 @@ func indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, rec
 		return slope, "", false
 	}
 	return nan, "unknown measure " + string(ind.Measure), false
+}
+
+func criterionValue(ind config.Indicator, ser *Series, station string) (float64, string) {
+	if ser == nil {
+		return math.NaN(), "no daily series"
+	}
+	if why, ok := ser.Missing[station]; ok {
+		return math.NaN(), why
+	}
+	st, ok := ser.Criteria[station][ind.Criterion]
+	if !ok {
+		return math.NaN(), "no water-temperature record for criterion " + strconv.Quote(ind.Criterion)
+	}
+	var v float64
+	switch ind.Statistic {
+	case config.Reliability:
+		v = st.Reliability
+	case config.Resilience:
+		v = st.Resilience
+	case config.Vulnerability:
+		v = st.Vulnerability
+	case config.DaysAbove:
+		v = st.DaysAbove
+	}
+	if math.IsNaN(v) {
+		note := st.Note
+		if note == "" {
+			note = fmt.Sprintf("%s undefined: the 7-day statistic never exceeded %q", ind.Statistic, ind.Criterion)
+		}
+		return v, note
+	}
+	return v, ""
 }
 
 func transform(x float64, t config.Transform) (float64, string, bool) {

@@ -68,7 +68,7 @@ func BenchmarkLoadAndReduce(b *testing.B) {
 				if errs != nil {
 					b.Fatal(errs[0])
 				}
-				if _, errs := Compute(tab, attrs, cfg); errs != nil {
+				if _, errs := Compute(tab, attrs, cfg, nil); errs != nil {
 					b.Fatal(errs[0])
 				}
 			}

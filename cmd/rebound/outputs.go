@@ -25,6 +25,7 @@ type renderer func(r *pipeline.Run, man *report.Manifest) ([]output, error)
 // last, after every other output is known.
 var renderers = []renderer{
 	renderTables,
+	renderDerived,
 }
 
 func renderTables(r *pipeline.Run, _ *report.Manifest) ([]output, error) {
@@ -41,6 +42,27 @@ func renderTables(r *pipeline.Run, _ *report.Manifest) ([]output, error) {
 			return nil, fmt.Errorf("%s: %w", t.name, err)
 		}
 		outs = append(outs, output{t.name, buf.Bytes()})
+	}
+	return outs, nil
+}
+
+// renderDerived writes what the pass over the daily series found: the
+// derived events and the criteria performance.
+func renderDerived(r *pipeline.Run, _ *report.Manifest) ([]output, error) {
+	var outs []output
+	if r.Config.DeriveEvents() {
+		var buf bytes.Buffer
+		if err := report.WriteDerivedEvents(&buf, r); err != nil {
+			return nil, fmt.Errorf("events.csv: %w", err)
+		}
+		outs = append(outs, output{"events.csv", buf.Bytes()})
+	}
+	if len(r.Config.Criteria) > 0 && r.Stations != nil {
+		var buf bytes.Buffer
+		if err := report.WriteCriteria(&buf, r); err != nil {
+			return nil, fmt.Errorf("criteria.csv: %w", err)
+		}
+		outs = append(outs, output{"criteria.csv", buf.Bytes()})
 	}
 	return outs, nil
 }

@@ -12,24 +12,114 @@ title = "Caldermoor resilience screening (invented demo data)"
 seed = 20240611
 
 [inputs]
-events = "events.csv"
+# No events table: the events are derived from the daily records below.
+events = ""
 attributes = "stations.csv"
 record_years_column = "record_years"
+user_events = "user_events.csv"
+fill_gap_days = 2
 
+[[inputs.wide]]
+path = "series/air_temperature.csv"
+variable = "air_temperature"
+
+[[inputs.wide]]
+path = "series/discharge.csv"
+variable = "discharge"
+
+[[inputs.wide]]
+path = "series/water_temperature.csv"
+variable = "water_temperature"
+
+[[inputs.wide]]
+path = "series/water_temperature_max.csv"
+variable = "water_temperature_max"
+
+[[inputs.wide]]
+path = "series/specific_conductance.csv"
+variable = "specific_conductance"
+
+[[inputs.wide]]
+path = "series/dissolved_oxygen.csv"
+variable = "dissolved_oxygen"
+
+# The recovery band is a fixed tolerance around normal here ("back within
+# 1 °C of normal"), rather than the default of one standard deviation of
+# the station's own departures, so that stations are held to the same mark.
 [[variable]]
 name = "water_temperature"
-units = "°C"
+units = "degC"
 harmful = "increase"
+tolerance = 1.0
+range = [-1.0, 40.0]
+
+[[variable]]
+name = "water_temperature_max"
+units = "degC"
+range = [-1.0, 45.0]
 
 [[variable]]
 name = "specific_conductance"
-units = "µS/cm"
+units = "uS/cm"
 harmful = "increase"
+tolerance = 40.0
+range = [0.0, 5000.0]
 
 [[variable]]
 name = "dissolved_oxygen"
 units = "mg/L"
 harmful = "decrease"
+tolerance = 0.8
+range = [0.0, 20.0]
+
+[[variable]]
+name = "air_temperature"
+units = "degC"
+
+[[variable]]
+name = "discharge"
+units = "m3/s"
+range = [0.0, 10000.0]
+
+# How events are found in the records and how recovery is measured: the
+# defaults, written out.
+[events]
+min_years = 5
+half_window_days = 5
+smooth_days = 31
+
+[events.heatwave]
+# Five days, as in the marine heat-wave definition, keeps the brief warm
+# spells of every season out of the demo (the default is 3).
+percentile = 90.0
+min_days = 5
+max_gap_days = 2
+
+[events.drought]
+percentile = 20.0
+threshold = "fixed"
+min_days = 5
+pool_days = 5
+
+[events.flood]
+percentile = 95.0
+separation_days = 7
+trough = 0.75
+
+[events.recovery]
+lag_days = 14
+run_days = 7
+tolerance_sd = 1.0
+
+[events.dryness]
+measure = "fraction"
+days = 365
+
+# An example criterion for the 7-day statistic. It is NOT a standard: use
+# the criteria that apply where you work.
+[[criterion]]
+name = "example_rearing_18C"
+limit = 18.0
 
 [[indicator]]
 name = "heat_warming"
@@ -41,8 +131,10 @@ weight = 0.25
 
 [[indicator]]
 name = "recovery"
-label = "Median days to recover, all events and variables (Kaplan–Meier)"
+label = "Median days for water temperature to return within 1 °C of normal after heat waves and droughts (Kaplan–Meier)"
 measure = "recovery"
+kinds = ["heatwave", "drought"]
+variables = ["water_temperature"]
 weight = 0.20
 
 [[indicator]]
@@ -69,10 +161,11 @@ variables = ["dissolved_oxygen"]
 weight = 0.10
 
 [[indicator]]
-name = "heat_frequency"
-label = "Heat waves with a recorded response per year of record"
-measure = "frequency"
-kinds = ["heatwave"]
+name = "criterion_reliability"
+label = "Share of days meeting the example 18 °C criterion (7-day statistic)"
+measure = "criterion"
+criterion = "example_rearing_18C"
+statistic = "reliability"
 weight = 0.05
 
 [[indicator]]
@@ -121,20 +214,25 @@ Everything in this folder is invented. Caldermoor does not exist; its
 coordinates put it in the open North Atlantic so that no map mistakes it for
 a real place. The files are generated from a fixed seed by "rebound demo".
 
-  stations.csv   32 stations in four basins, with invented attributes
-  events.csv     per-event water-quality departures, 2010-2024
-  rebound.toml   the configuration used for the demo run
-  out/           the outputs of the run
+  stations.csv     32 stations in four basins, with invented attributes
+  series/*.csv     daily records 2010-2024, one file per variable (wide
+                   layout; the lowland loggers record daily means only)
+  user_events.csv  a reservoir drawdown that no series shows
+  rebound.toml     the configuration used for the demo run
+  out/             the outputs of the run, including the derived events
 
-The story planted in the data:
+The story planted in the data (rebound has to find it on its own):
   Fenwater   spring-fed creeks: small, quick departures; groundwater buffers them.
   Highcairn  snowmelt headwaters: cold, but warmer after a dry winter.
-  Bratton    a dam tailwater (cold releases, then late warming in long heat
-             waves such as July-August 2018, and slow recovery) and flashy
-             urban reaches (large but brief departures, oxygen sags in floods).
+  Bratton    a dam tailwater: cold releases keep it cool until a long heat
+             wave (late July 2018) exhausts the reservoir's cold pool, then
+             it runs far above normal; and flashy urban reaches: large
+             departures with every warm spell, road salt in winter, oxygen
+             sags when storms overflow the sewers. A maintenance drawdown
+             of the reservoir in September 2015 is listed in user_events.csv.
   Lowmere    lowland agricultural rivers: slow recovery and strong drought
              memory; the July 2023 heat wave after the 2020-2022 drought
-             hits them hardest.
+             warms them far more than the longer heat wave of 2018 did.
 
 The ranking is a screening aid, not a regulatory determination.
 `

@@ -5,17 +5,19 @@
 // in the ranking.
 //
 // The region, Caldermoor, does not exist. Its coordinates place it in the
-// open North Atlantic so that no map can mistake it for a real place. Four
-// basins hold five kinds of station:
+// open North Atlantic so that no map can mistake it for a real place. The
+// demo writes fifteen years (2010–2024) of daily records, and rebound
+// derives the events from them. Four basins hold five kinds of station:
 //
 //   - Fenwater: spring-fed upland creeks. Groundwater buffers them: small,
 //     quick departures and little drought memory.
 //   - Highcairn: snowmelt headwaters. Cold, but a dry winter leaves little
 //     snowpack, so heat after drought warms them noticeably.
 //   - Bratton: a dam tailwater below Corran Reservoir (cold releases hold
-//     temperature down until a long heat wave exhausts the cold pool, then
-//     it warms late and recovers slowly) and the flashy urban reaches of
-//     Bratton town (large, fast departures that also pass quickly).
+//     temperature down until a long heat wave, as in 2018, exhausts the cold
+//     pool; then it warms far above normal) and the flashy urban reaches of
+//     Bratton town (large departures that follow every warm spell, salt in
+//     winter, oxygen sags when storms overflow the sewers).
 //   - Lowmere: lowland agricultural rivers. Slow to recover and with strong
 //     drought memory: the same heat wave does much more harm after the
 //     multi-year drought.
@@ -31,6 +33,7 @@ import (
 	"strconv"
 
 	"rebound/index/calendar"
+	"rebound/index/series"
 )
 
 // Region is the name of the invented region.
@@ -161,10 +164,9 @@ func round(x float64, d int) float64 {
 
 // Files generates every file of the scenario.
 func Files() ([]File, error) {
-	rng := rand.New(rand.NewPCG(Seed, 1))
-	stations := Stations(rng)
+	stations := Stations(rand.New(rand.NewPCG(Seed, 1)))
 	timeline := Timeline(rand.New(rand.NewPCG(Seed, 2)))
-	events := Events(stations, timeline, rand.New(rand.NewPCG(Seed, 3)))
+	records := seriesStations(stations, timeline, rand.New(rand.NewPCG(Seed, 3)))
 
 	var files []File
 	attrs, err := attributesCSV(stations)
@@ -172,15 +174,33 @@ func Files() ([]File, error) {
 		return nil, err
 	}
 	files = append(files, File{"stations.csv", attrs})
-	ev, err := eventsCSV(events)
-	if err != nil {
-		return nil, err
+	for _, v := range seriesVars {
+		var buf bytes.Buffer
+		var with []*series.Station
+		for _, r := range records {
+			if r.Vars[v] != nil {
+				with = append(with, r)
+			}
+		}
+		if err := series.WriteWide(&buf, with, v); err != nil {
+			return nil, err
+		}
+		files = append(files, File{"series/" + v + ".csv", buf.Bytes()})
 	}
-	files = append(files, File{"events.csv", ev})
+	files = append(files, File{"user_events.csv", []byte(userEvents)})
 	files = append(files, File{ConfigName, []byte(configText)})
 	files = append(files, File{"README.txt", []byte(readme)})
 	return files, nil
 }
+
+// userEvents lists a disturbance no series shows: a drawdown of Corran
+// Reservoir for dam maintenance, which sends warm surface water downstream.
+const userEvents = `kind,start,end,station
+# A maintenance drawdown of Corran Reservoir (invented), felt below the dam.
+drawdown,2015-09-01,2015-09-21,BRT-01
+drawdown,2015-09-01,2015-09-21,BRT-02
+drawdown,2015-09-01,2015-09-21,BRT-03
+`
 
 func attributesCSV(stations []Station) ([]byte, error) {
 	var buf bytes.Buffer

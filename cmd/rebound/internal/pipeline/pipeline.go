@@ -38,6 +38,13 @@ type Run struct {
 	Raw     *index.Raw
 	Weights *index.Weights
 	Result  *index.Result
+	// Stations holds, per station with daily records, what the pass over
+	// the series kept (derived events, criteria, features), in input order;
+	// nil when the run reads no series.
+	Stations      []*StationSeries
+	SeriesSummary *SeriesSummary
+	// Series is what the criterion indicators need.
+	Series *index.Series
 	// Warnings gathers every warning of every step, for the manifest,
 	// workbook and memo.
 	Warnings []error
@@ -93,8 +100,13 @@ func Load(path string) (*Run, []error) {
 	if len(errs) > 0 {
 		return nil, errs
 	}
+	if needsSeries(cfg) {
+		if serrs := r.passSeries(50); len(serrs) > 0 {
+			return nil, serrs
+		}
+	}
 
-	raw, cerrs := index.Compute(r.Events, r.Attrs, cfg)
+	raw, cerrs := index.Compute(r.Events, r.Attrs, cfg, r.Series)
 	if len(cerrs) > 0 {
 		return nil, cerrs
 	}
