@@ -107,7 +107,8 @@ type Agreement struct {
 // 10,000 stations), filled from blocks of about 32 MiB of ranks, so memory
 // does not grow with the number of samples; only the per-sample
 // correlations take 8 bytes a sample. Spearman and Kendall are computed
-// over the stations with a defined base composite.
+// over the stations with a defined base composite. At most 65535 stations
+// can be ranked.
 func MonteCarlo(m Model, s Settings) (*MonteCarloResult, error) {
 	p, err := m.prepare()
 	if err != nil {
@@ -124,6 +125,11 @@ func MonteCarlo(m Model, s Settings) (*MonteCarloResult, error) {
 	if err != nil {
 		return nil, err
 	}
+	if p.n > math.MaxUint16 {
+		// Ranks are stored in 2 bytes; the histograms alone would take
+		// more than 8 GiB.
+		return nil, fmt.Errorf("sensitivity: %d stations; the Monte Carlo analysis ranks at most %d", p.n, math.MaxUint16)
+	}
 	counter := int64(2)
 	if samples > math.MaxUint16 {
 		counter = 4
@@ -139,10 +145,11 @@ func MonteCarlo(m Model, s Settings) (*MonteCarloResult, error) {
 }
 
 // blockSamples returns how many samples are ranked between histogram
-// updates: each update sweeps all n² counters, so the blocks are as long
-// as about 32 MiB of ranks allows (at least 64, at most 4096 samples).
+// updates: each update brings every station's counters in from memory, so
+// the blocks are as long as about 32 MiB of 2-byte ranks allows (at least
+// 64, at most 8192 samples).
 func blockSamples(n int) int {
-	return min(max((32<<20)/(4*n), 64), 4096)
+	return min(max((32<<20)/(2*n), 64), 8192)
 }
 
 func monteCarlo[C uint16 | uint32](p *prepared, ws *weightSampler, s Settings, samples int) (*MonteCarloResult, error) {
@@ -163,11 +170,12 @@ func monteCarlo[C uint16 | uint32](p *prepared, ws *weightSampler, s Settings, s
 			p: p, ws: ws, base: shared, seed: s.Seed, stride: res.KendallStride, res: res,
 			w:      make([]float64, p.k),
 			scores: make([]float64, n),
+			ranks:  make([]int32, n),
 		}
 	}
 	hist := make([]C, n*n)
 	block := min(blockSamples(n), samples)
-	ranks := make([]int32, block*n)
+	ranks := make([]uint16, block*n)
 	for b0 := 0; b0 < samples; b0 += block {
 		b1 := min(b0+block, samples)
 		// Rank the block's samples, interleaved over the workers.
@@ -349,6 +357,7 @@ type mcWorker struct {
 	pcg     rand.PCG
 	w       []float64
 	scores  []float64
+	ranks   []int32
 	ranker  rankstat.Ranker
 	kendall rankstat.Kendall
 	ky      []int32
@@ -357,9 +366,9 @@ type mcWorker struct {
 	errSample int
 }
 
-// sample draws weight vector i, writes the ranks it gives to ranks and
+// sample draws weight vector i, writes the ranks it gives to dst and
 // records its agreement with the base ranking.
-func (w *mcWorker) sample(i int, ranks []int32) {
+func (w *mcWorker) sample(i int, dst []uint16) {
 	w.pcg.Seed(w.seed, uint64(i))
 	if !w.ws.draw(w.w, &w.pcg) {
 		w.err = fmt.Errorf("sensitivity: Monte Carlo sample %d: no weight vector within the bounds in %d draws", i, maxTries)
@@ -367,7 +376,10 @@ func (w *mcWorker) sample(i int, ranks []int32) {
 		return
 	}
 	w.p.composites(w.scores, w.w)
-	w.ranker.Ranks(ranks, w.scores)
+	ranks := w.ranker.Ranks(w.ranks, w.scores)
+	for st, r := range ranks {
+		dst[st] = uint16(r)
+	}
 	w.res.SpearmanSamples[i] = w.spearman(ranks)
 	if i%w.stride == 0 {
 		w.res.KendallSamples[i/w.stride] = w.tauB(ranks)
