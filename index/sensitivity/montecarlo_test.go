@@ -260,6 +260,11 @@ func TestMonteCarloErrors(t *testing.T) {
 			}
 		})
 	}
+	big := Model{Values: make([]float64, 65536), Weights: []float64{1}}
+	want := "sensitivity: 65536 stations; the Monte Carlo analysis ranks at most 65535"
+	if _, err := MonteCarlo(big, Settings{}); err == nil || err.Error() != want {
+		t.Errorf("error %v, want %q", err, want)
+	}
 }
 
 func TestMonteCarloUint32Counters(t *testing.T) {
