@@ -281,3 +281,36 @@ func TestInit(t *testing.T) {
 		t.Errorf("init -force: %d %s", status, stderr)
 	}
 }
+
+func TestEventsCommand(t *testing.T) {
+	dir := t.TempDir()
+	if _, stderr, status := rebound(t, dir, "demo", "-out", "d"); status != 0 {
+		t.Fatalf("demo: %s", stderr)
+	}
+	stdout, stderr, status := rebound(t, dir, "events", "-config", "d/rebound.toml", "-out", "ev")
+	if status != 0 {
+		t.Fatalf("events: %d %s", status, stderr)
+	}
+	if !strings.Contains(stdout, "32 stations read") || !strings.Contains(stdout, "drawdown") {
+		t.Errorf("stdout: %s", stdout)
+	}
+	// The derived table reads back as an events table, and equals the one
+	// that run wrote.
+	a, _ := os.ReadFile(filepath.Join(dir, "ev", "events.csv"))
+	b, _ := os.ReadFile(filepath.Join(dir, "d", "out", "events.csv"))
+	if len(a) == 0 || !bytes.Equal(a, b) {
+		t.Errorf("events.csv from events (%d bytes) and run (%d bytes) differ", len(a), len(b))
+	}
+	cfg, _ := os.ReadFile(filepath.Join(dir, "d", "rebound.toml"))
+	cfg = bytes.Replace(cfg, []byte(`events = ""`), []byte(`events = "../ev/events.csv"`), 1)
+	os.WriteFile(filepath.Join(dir, "d", "table.toml"), cfg, 0o644)
+	_, stderr, status = rebound(t, dir, "check", "-config", "d/table.toml")
+	if status != 0 {
+		t.Errorf("the derived events table does not check: %s", stderr)
+	}
+	// events refuses a configuration with an events table.
+	_, stderr, status = rebound(t, dir, "events", "-config", "d/table.toml", "-out", "ev2")
+	if status != 1 || !strings.Contains(stderr, "names an events table") {
+		t.Errorf("events with a table: %d %s", status, stderr)
+	}
+}

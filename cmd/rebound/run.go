@@ -8,6 +8,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -45,6 +46,8 @@ func run(args []string, stdout, stderr io.Writer) error {
 		return cmdRun(rest, stdout, stderr)
 	case "check":
 		return cmdCheck(rest, stdout, stderr)
+	case "events":
+		return cmdEvents(rest, stdout, stderr)
 	case "init":
 		return cmdInit(rest, stdout, stderr)
 	case "demo":
@@ -62,8 +65,9 @@ const usage = `rebound ranks river stations by the resilience of their water qua
 heat waves, droughts and floods.
 
 Usage:
-  rebound run -config FILE [-out DIR] [-seed N] [-all]   score and rank, write outputs
+  rebound run -config FILE [-out DIR] [-seed N] [-all]   score and rank, write outputs (-quiet: no progress)
   rebound check -config FILE                             validate the configuration and inputs
+  rebound events -config FILE [-out DIR] [-quiet]        derive events and criteria from daily series
   rebound init [-o FILE] [-force]                        write a commented configuration template
   rebound demo [-out DIR] [-force]                       write an invented demo region and run it
   rebound version                                        print the version
@@ -92,6 +96,20 @@ atomically, and an output path equal to an input is refused.
 Validates the configuration and every input and lists all problems found,
 one per line, each with its file and line (or configuration key). Exit
 status 1 when there is any problem.
+`,
+	"events": `rebound events -config FILE [-out DIR] [-quiet]
+
+Reads the daily series the configuration names, finds the disturbances
+(heat waves, droughts, floods and the user's listed events), measures each
+water-quality variable's response to each one, evaluates the
+water-temperature criteria, and writes into DIR (default: output.dir):
+  events.csv    one row per station, event and variable: the events table
+                rebound run reads (peak departure, recovery days, recovered,
+                antecedent dryness), plus mean and cumulative departure, peak
+                date, censoring reason, duration and driver figures
+  criteria.csv  per station and criterion: the 7-day statistic used (7DADM or
+                7-day mean), days above, reliability, resilience, vulnerability
+Progress is shown on stderr when it is a terminal; -quiet silences it.
 `,
 	"init": `rebound init [-o FILE] [-force]
 
@@ -157,6 +175,7 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 	out := fs.String("out", "", "output folder")
 	seed := fs.String("seed", "", "seed (overrides the configuration)")
 	all := fs.Bool("all", false, "print every station")
+	quiet := fs.Bool("quiet", false, "no progress on stderr")
 	if help, err := parse(fs, args, stdout); help || err != nil {
 		return err
 	}
@@ -171,11 +190,13 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 		}
 		seedOverride = &s
 	}
-	return runPipeline(*cfgPath, *out, seedOverride, *all, stdout, stderr)
+	return runPipeline(*cfgPath, *out, seedOverride, *all, *quiet, stdout, stderr)
 }
 
-func runPipeline(cfgPath, out string, seed *uint64, all bool, stdout, stderr io.Writer) error {
-	r, errs := pipeline.Load(cfgPath)
+func runPipeline(cfgPath, out string, seed *uint64, all, quiet bool, stdout, stderr io.Writer) error {
+	prog := newProgress(stderr, quiet)
+	r, errs := pipeline.LoadWith(cfgPath, pipeline.Options{Progress: prog.stations})
+	prog.done()
 	if len(errs) > 0 {
 		return reportProblems(stderr, errs)
 	}
@@ -260,6 +281,7 @@ func cmdDemo(args []string, stdout, stderr io.Writer) error {
 	fs := newFlags("demo")
 	out := fs.String("out", "rebound-demo", "folder for the demo inputs and outputs")
 	force := fs.Bool("force", false, "overwrite demo files that were changed")
+	quiet := fs.Bool("quiet", false, "no progress on stderr")
 	if help, err := parse(fs, args, stdout); help || err != nil {
 		return err
 	}
@@ -280,5 +302,14 @@ func cmdDemo(args []string, stdout, stderr io.Writer) error {
 		}
 	}
 	fmt.Fprintf(stdout, "Wrote the demo region (%s) to %s\n\n", demo.Region, *out)
-	return runPipeline(filepath.Join(*out, demo.ConfigName), "", nil, false, stdout, stderr)
+	return runPipeline(filepath.Join(*out, demo.ConfigName), "", nil, false, *quiet, stdout, stderr)
+}
+
+func sortedKeys[V any](m map[string]V) []string {
+	keys := make([]string, 0, len(m))
+	for k := range m {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	return keys
 }

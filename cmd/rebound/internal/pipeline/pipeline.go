@@ -48,17 +48,43 @@ type Run struct {
 	// Warnings gathers every warning of every step, for the manifest,
 	// workbook and memo.
 	Warnings []error
+
+	progress func(int)
+}
+
+// Options adjusts how a run reads its inputs.
+type Options struct {
+	// Progress, when set, is called with the number of stations read so
+	// far while the daily series are read.
+	Progress func(stations int)
 }
 
 // Load reads and validates the configuration at path and every input it
-// names, returning every problem found. Nothing is computed beyond what
-// validation needs.
-func Load(path string) (*Run, []error) {
+// names, derives what the daily series give, and computes the raw
+// indicators and weights. It returns every problem found.
+func Load(path string) (*Run, []error) { return LoadWith(path, Options{}) }
+
+// LoadWith is Load with options.
+func LoadWith(path string, opt Options) (*Run, []error) {
+	r, errs := LoadInputs(path, opt)
+	if len(errs) > 0 {
+		return nil, errs
+	}
+	if errs := r.computeIndicators(); len(errs) > 0 {
+		return nil, errs
+	}
+	return r, nil
+}
+
+// LoadInputs reads and validates the configuration and every input, and
+// makes the pass over the daily series (deriving events, criteria and
+// features), but computes no indicator.
+func LoadInputs(path string, opt Options) (*Run, []error) {
 	cfg, errs := config.Load(path)
 	if len(errs) > 0 {
 		return nil, errs
 	}
-	r := &Run{Config: cfg}
+	r := &Run{Config: cfg, progress: opt.Progress}
 	if in, err := digest("config", path); err == nil {
 		r.Inputs = append(r.Inputs, in)
 	}
@@ -105,20 +131,24 @@ func Load(path string) (*Run, []error) {
 			return nil, serrs
 		}
 	}
+	return r, nil
+}
 
+func (r *Run) computeIndicators() []error {
+	cfg := r.Config
 	raw, cerrs := index.Compute(r.Events, r.Attrs, cfg, r.Series)
 	if len(cerrs) > 0 {
-		return nil, cerrs
+		return cerrs
 	}
 	r.Raw = raw
 	r.Warnings = append(r.Warnings, raw.Warnings...)
 	w, err := index.ResolveWeights(cfg)
 	if err != nil {
-		return nil, []error{err}
+		return []error{err}
 	}
 	r.Weights = w
 	r.Warnings = append(r.Warnings, w.Warnings...)
-	return r, nil
+	return nil
 }
 
 // Score normalises, aggregates and ranks.

@@ -206,6 +206,9 @@ func (r *Run) passSeries(maxErrors int) []error {
 		}
 		seen[s.ID] = true
 		r.Stations = append(r.Stations, s)
+		if r.progress != nil {
+			r.progress(len(r.Stations))
+		}
 		return nil
 	}
 	addSummary := func(name string, rows int, s series.Summary) {

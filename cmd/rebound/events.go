@@ -1,0 +1,121 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+
+	"rebound/cmd/rebound/internal/pipeline"
+	"rebound/cmd/rebound/internal/report"
+)
+
+func cmdEvents(args []string, stdout, stderr io.Writer) error {
+	fs := newFlags("events")
+	cfgPath := fs.String("config", "", "configuration file")
+	out := fs.String("out", "", "output folder")
+	quiet := fs.Bool("quiet", false, "no progress on stderr")
+	if help, err := parse(fs, args, stdout); help || err != nil {
+		return err
+	}
+	if *cfgPath == "" {
+		return usageError{"events: -config FILE is required"}
+	}
+	prog := newProgress(stderr, *quiet)
+	r, errs := pipeline.LoadInputs(*cfgPath, pipeline.Options{Progress: prog.stations})
+	prog.done()
+	if len(errs) > 0 {
+		return reportProblems(stderr, errs)
+	}
+	if !r.Config.HasSeries() {
+		return fmt.Errorf("%s: events are derived from daily series: name them in inputs.series or inputs.wide", *cfgPath)
+	}
+	if !r.Config.DeriveEvents() {
+		return fmt.Errorf("%s: inputs.events names an events table, so no events are derived; set events = \"\" to derive them from the series", *cfgPath)
+	}
+	dir := r.OutputDir(*out)
+	outs, err := renderDerived(r, nil)
+	if err != nil {
+		return err
+	}
+	var paths []string
+	for _, o := range outs {
+		paths = append(paths, filepath.Join(dir, o.Name))
+	}
+	if err := r.CheckOutputs(paths); err != nil {
+		return err
+	}
+	for i, o := range outs {
+		data := o.Data
+		if err := report.WriteFile(paths[i], func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
+			return err
+		}
+	}
+	rows, stations := 0, 0
+	kinds := map[string]int{}
+	for _, s := range r.Stations {
+		if len(s.Rows) > 0 {
+			stations++
+		}
+		seen := map[string]bool{}
+		for _, row := range s.Rows {
+			rows++
+			if !seen[row.EventID] {
+				seen[row.EventID] = true
+				kinds[row.Kind]++
+			}
+		}
+	}
+	fmt.Fprintf(stdout, "%d stations read; %d event rows at %d stations (", len(r.Stations), rows, stations)
+	first := true
+	for _, k := range sortedKeys(kinds) {
+		if !first {
+			fmt.Fprint(stdout, ", ")
+		}
+		first = false
+		fmt.Fprintf(stdout, "%d %s", kinds[k], k)
+	}
+	fmt.Fprintf(stdout, ")\n")
+	for _, o := range outs {
+		fmt.Fprintf(stdout, "Wrote %s\n", filepath.Join(dir, o.Name))
+	}
+	if len(r.Warnings) > 0 {
+		fmt.Fprintf(stdout, "%d warnings:\n", len(r.Warnings))
+		for _, w := range r.Warnings {
+			fmt.Fprintln(stdout, "  "+w.Error())
+		}
+	}
+	return nil
+}
+
+// progress prints a running count on stderr while series are read, when
+// stderr is a terminal and progress is not silenced.
+type progress struct {
+	w       io.Writer
+	on      bool
+	printed bool
+}
+
+func newProgress(stderr io.Writer, quiet bool) *progress {
+	p := &progress{w: stderr}
+	if f, ok := stderr.(*os.File); ok && !quiet {
+		if fi, err := f.Stat(); err == nil && fi.Mode()&os.ModeCharDevice != 0 {
+			p.on = true
+		}
+	}
+	return p
+}
+
+func (p *progress) stations(n int) {
+	if p.on && (n < 100 || n%100 == 0) {
+		fmt.Fprintf(p.w, "\rreading series: %d stations", n)
+		p.printed = true
+	}
+}
+
+func (p *progress) done() {
+	if p.printed {
+		fmt.Fprintln(p.w)
+	}
+}
+
