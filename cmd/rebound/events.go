@@ -118,4 +118,3 @@ func (p *progress) done() {
 		fmt.Fprintln(p.w)
 	}
 }
-
