@@ -349,7 +349,13 @@ func stationSeries(g *region, s Station, index int, rain, noise []float64, rng *
 		for i := range y {
 			y[i] = round(x[i+skip], digits)
 		}
-		// One or two outages of 4 to 40 days per sensor.
+		// Sporadic lost days (filled by interpolation when short) and one
+		// or two outages of 4 to 40 days per sensor.
+		for i := range y {
+			if rng.Float64() < 0.003 {
+				y[i] = math.NaN()
+			}
+		}
 		for range rng.IntN(3) {
 			a := rng.IntN(len(y))
 			for i := a; i < min(len(y), a+4+rng.IntN(37)); i++ {

@@ -30,6 +30,7 @@ type Manifest struct {
 	Config     map[string]any  `json:"config"`
 	Inputs     []ManifestInput `json:"inputs"`
 	Weights    ManifestWeights `json:"weights"`
+	Series     *ManifestSeries `json:"series,omitempty"`
 	Stations   int             `json:"stations"`
 	Scored     int             `json:"scored"`
 	Outputs    []string        `json:"outputs"`
@@ -46,6 +47,28 @@ type ManifestInput struct {
 	Rows     int      `json:"rows"`
 	Rejected int      `json:"rejected"`
 	Notes    []string `json:"notes,omitempty"`
+}
+
+// ManifestSeries says what the pass over the daily series read, dropped and
+// filled, in total and per station.
+type ManifestSeries struct {
+	Rows     int                                  `json:"rows"`
+	Stations int                                  `json:"stations"`
+	Skipped  map[string]int                       `json:"skipped_variables,omitempty"`
+	Unknown  []string                             `json:"stations_not_in_attributes,omitempty"`
+	Totals   map[string]ManifestCounts            `json:"totals"`
+	Station  map[string]map[string]ManifestCounts `json:"per_station"`
+}
+
+// ManifestCounts are one variable's counts (see series.Counts).
+type ManifestCounts struct {
+	Rows       int `json:"rows"`
+	Kept       int `json:"kept"`
+	Blank      int `json:"blank"`
+	Excluded   int `json:"excluded_by_qualifier"`
+	Filled     int `json:"filled"`
+	Converted  int `json:"converted"`
+	OutOfRange int `json:"out_of_range"`
 }
 
 // ManifestWeights are the weights actually used.
@@ -96,6 +119,21 @@ func BuildManifest(r *pipeline.Run, m Meta) (*Manifest, error) {
 	}
 	for _, w := range r.Warnings {
 		man.Warnings = append(man.Warnings, w.Error())
+	}
+	if sum := r.SeriesSummary; sum != nil {
+		ms := &ManifestSeries{Rows: sum.Rows, Stations: sum.Stations, Skipped: sum.Skipped, Unknown: sum.Unknown,
+			Totals: map[string]ManifestCounts{}, Station: map[string]map[string]ManifestCounts{}}
+		for v, c := range sum.Vars {
+			ms.Totals[v] = ManifestCounts(*c)
+		}
+		for _, st := range r.Stations {
+			m := map[string]ManifestCounts{}
+			for v, c := range st.Counts {
+				m[v] = ManifestCounts(*c)
+			}
+			ms.Station[st.ID] = m
+		}
+		man.Series = ms
 	}
 	return man, nil
 }
