@@ -23,7 +23,7 @@ type Event struct {
 	Start    calendar.Date
 	End      calendar.Date
 	// PeakDeparture is the signed departure from normal at the worst point,
-	// in the variable's units.
+	// in the variable's units; NaN when unknown (no value in the window).
 	PeakDeparture float64
 	// RecoveryDays is the time to recovery when Recovered, else the time
 	// observed without recovery (right-censored).
@@ -142,7 +142,7 @@ func ReadEvents(r io.Reader, name string) (*EventTable, []error) {
 		if startOK && endOK && e.End < e.Start {
 			bad(5, fmt.Errorf("end %s is before start %s", e.End, e.Start))
 		}
-		e.PeakDeparture = number(field(6), true, func(err error) { bad(6, err) })
+		e.PeakDeparture = number(field(6), false, func(err error) { bad(6, err) })
 		e.RecoveryDays = number(field(7), true, func(err error) { bad(7, err) })
 		if e.RecoveryDays < 0 {
 			bad(7, fmt.Errorf("want days >= 0, got %q", field(7)))

@@ -13,12 +13,13 @@ func TestReadEvents(t *testing.T) {
 		"S1,HW-1,heatwave,water_temperature,2021-07-01,2021-07-09,3.2,12,true,0.4,hot\n"+
 		"S1,HW-1,heatwave,dissolved_oxygen,2021-07-01,2021-07-09,-1.5,20,false,,\n"+
 		"\n"+
-		"S2,DR-1,drought,specific_conductance,2020-08-01,2020-09-30,150,0,TRUE,1,\n", "\n", "\r\n")
+		"S2,DR-1,drought,specific_conductance,2020-08-01,2020-09-30,150,0,TRUE,1,\n"+
+		"S2,DR-1,drought,water_temperature,2020-08-01,2020-09-30,,4,false,1,\n", "\n", "\r\n")
 	tab, errs := ReadEvents(strings.NewReader(text), "events.csv")
 	if len(errs) > 0 {
 		t.Fatal(errs)
 	}
-	if len(tab.Events) != 3 || len(tab.Extra) != 1 || tab.Extra[0] != "note" {
+	if len(tab.Events) != 4 || !math.IsNaN(tab.Events[3].PeakDeparture) || len(tab.Extra) != 1 || tab.Extra[0] != "note" {
 		t.Fatalf("got %+v", tab)
 	}
 	e := tab.Events[1]
@@ -47,7 +48,7 @@ func TestReadEventsErrors(t *testing.T) {
 		{"recovered not boolean", row("S,E,heatwave,wt,2021-07-01,2021-07-05,1,3,yes,"), []string{`e.csv:2:43: recovered: want true or false, got "yes"`}},
 		{"NaN departure", row("S,E,heatwave,wt,2021-07-01,2021-07-05,NaN,3,true,"), []string{`e.csv:2:39: peak_departure: want a finite number, got "NaN"`}},
 		{"Inf dryness", row("S,E,heatwave,wt,2021-07-01,2021-07-05,1,3,true,Inf"), []string{`antecedent_dryness: want a finite number, got "Inf"`}},
-		{"blank departure", row("S,E,heatwave,wt,2021-07-01,2021-07-05,,3,true,"), []string{`peak_departure: want a number, got a blank cell`}},
+		{"blank recovery", row("S,E,heatwave,wt,2021-07-01,2021-07-05,1,,true,"), []string{`recovery_days: want a number, got a blank cell`}},
 		{"blank station", row(",E,heatwave,wt,2021-07-01,2021-07-05,1,3,true,"), []string{`e.csv:2:1: station: want a value, got a blank cell`}},
 		{"short row", row("S,E,heatwave"), []string{`e.csv:2: want 10 fields like the header, got 3`}},
 		{"every problem", row("S,E,heatwave,wt,x,2021-07-05,1,-3,maybe,") + "T,E,flood,wt,2021-01-01,2021-01-02,z,1,true,\n",

@@ -220,9 +220,14 @@ func indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, rec
 	switch ind.Measure {
 	case config.Magnitude:
 		sign := harmfulSign(cfg, ind.Variables[0])
-		mags := make([]float64, len(sel))
-		for k, e := range sel {
-			mags[k] = sign * e.PeakDeparture
+		var mags []float64
+		for _, e := range sel {
+			if !math.IsNaN(e.PeakDeparture) {
+				mags = append(mags, sign*e.PeakDeparture)
+			}
+		}
+		if len(mags) == 0 {
+			return nan, "no " + describeFilter(ind) + " events with a known peak departure", false
 		}
 		return robust.Median(mags), "", false
 	case config.Recovery:
@@ -246,13 +251,13 @@ func indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, rec
 		sign := harmfulSign(cfg, ind.Variables[0])
 		var x, y []float64
 		for _, e := range sel {
-			if !math.IsNaN(e.Dryness) {
+			if !math.IsNaN(e.Dryness) && !math.IsNaN(e.PeakDeparture) {
 				x = append(x, e.Dryness)
 				y = append(y, sign*e.PeakDeparture)
 			}
 		}
 		if len(x) < cfg.Memory.MinEvents {
-			return nan, fmt.Sprintf("%d events with known antecedent dryness, fewer than memory.min_events = %d", len(x), cfg.Memory.MinEvents), false
+			return nan, fmt.Sprintf("%d events with known antecedent dryness and peak departure, fewer than memory.min_events = %d", len(x), cfg.Memory.MinEvents), false
 		}
 		slope, ok := robust.TheilSen(x, y)
 		if !ok {

@@ -331,9 +331,6 @@ func derivedTable(stations []*StationSeries) *index.EventTable {
 	t := &index.EventTable{File: DerivedFile}
 	for _, s := range stations {
 		for _, row := range s.Rows {
-			if math.IsNaN(row.PeakDeparture) {
-				continue // no value in the response window; listed in events.csv only
-			}
 			t.Events = append(t.Events, index.Event{
 				Station: row.Station, ID: row.EventID, Kind: row.Kind, Variable: row.Variable,
 				Start: row.Start, End: row.End, PeakDeparture: row.PeakDeparture,
