@@ -26,6 +26,8 @@ type renderer func(r *pipeline.Run, man *report.Manifest) ([]output, error)
 var renderers = []renderer{
 	renderTables,
 	renderDerived,
+	renderClusters,
+	renderSensitivity,
 }
 
 func renderTables(r *pipeline.Run, _ *report.Manifest) ([]output, error) {

@@ -48,6 +48,10 @@ func run(args []string, stdout, stderr io.Writer) error {
 		return cmdCheck(rest, stdout, stderr)
 	case "events":
 		return cmdEvents(rest, stdout, stderr)
+	case "cluster":
+		return cmdCluster(rest, stdout, stderr)
+	case "sensitivity":
+		return cmdSensitivity(rest, stdout, stderr)
 	case "init":
 		return cmdInit(rest, stdout, stderr)
 	case "demo":

@@ -45,6 +45,12 @@ type Run struct {
 	SeriesSummary *SeriesSummary
 	// Series is what the criterion indicators need.
 	Series *index.Series
+	// Clusters is the clustering of the stations ([clustering]); nil when
+	// the run does not cluster.
+	Clusters *ClusterResult
+	// Sensitivity is the robustness analysis of the ranking
+	// ([sensitivity]); nil when it did not run.
+	Sensitivity *SensitivityResult
 	// Warnings gathers every warning of every step, for the manifest,
 	// workbook and memo.
 	Warnings []error
@@ -131,6 +137,9 @@ func LoadInputs(path string, opt Options) (*Run, []error) {
 			return nil, serrs
 		}
 	}
+	if err := r.cluster(); err != nil {
+		return nil, []error{err}
+	}
 	return r, nil
 }
 
@@ -162,6 +171,9 @@ func (r *Run) Score() error {
 		return err
 	}
 	r.Result = res
+	if err := r.analyzeSensitivity(); err != nil {
+		return err
+	}
 	r.Warnings = append(r.Warnings, res.Warnings...)
 	for i, id := range r.Raw.Stations {
 		for j, ind := range r.Raw.Indicators {
