@@ -69,18 +69,13 @@ func AgglomerateSized(d Condensed, l Linkage, sizes []int) (*Dendrogram, error) 
 			size[i] = float64(sizes[i])
 		}
 	}
-	if err := checkDistances(d); err != nil {
+	if err := checkDistances(d, l == Ward); err != nil {
 		return nil, err
 	}
 	var merges []Merge
 	if l == Single {
 		merges = primChain(d)
 	} else {
-		if l == Ward {
-			for i, v := range d.D {
-				d.D[i] = v * v
-			}
-		}
 		merges = nnChain(d, l, size)
 		if l == Ward {
 			for i := range merges {
@@ -94,9 +89,13 @@ func AgglomerateSized(d Condensed, l Linkage, sizes []int) (*Dendrogram, error) 
 }
 
 // checkDistances reports the first distance that is NaN, infinite or
-// negative.
-func checkDistances(d Condensed) error {
+// negative. If square is true it squares the distances as it goes, in the
+// same pass over memory; on error, d is partly squared.
+func checkDistances(d Condensed, square bool) error {
 	for k, v := range d.D {
+		if square {
+			d.D[k] = v * v
+		}
 		if !(v >= 0) || math.IsInf(v, 1) {
 			// Find the pair; this runs once, on failure.
 			rs := rowStarts(d.N)
