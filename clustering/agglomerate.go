@@ -17,8 +17,9 @@ import (
 // Müllner (2011), "Modern hierarchical, agglomerative clustering
 // algorithms", arXiv:1109.2378. Both take O(n²) time. The only memory of
 // that order is d itself: Agglomerate overwrites d.D as its working storage
-// (single linkage leaves it unchanged), so compute d again, or copy it
-// first, to use the distances afterwards. New cluster distances follow the
+// (single linkage leaves it unchanged; Ward may change it even when it
+// returns an error), so compute d again, or copy it first, to use the
+// distances afterwards. New cluster distances follow the
 // Lance–Williams update of each linkage; Ward works on squared distances
 // internally and reports heights as sqrt(2·ΔESS).
 //
@@ -42,8 +43,8 @@ func Agglomerate(d Condensed, l Linkage) (*Dendrogram, error) {
 // linkage as initial cluster sizes, and Merge.Size counts observations. For
 // Ward, d must then hold the Ward distances between the groups,
 // sqrt(2·nA·nB/(nA+nB))·‖cA−cB‖ for groups of sizes nA and nB with centroids
-// cA and cB; the tree is then the Ward tree of the observations above the
-// level of the groups. AgglomerateSized panics if sizes has the wrong
+// cA and cB; the tree is then the one that Ward linkage of the
+// observations builds when it starts from those groups. AgglomerateSized panics if sizes has the wrong
 // length, and returns an error for a size below 1.
 func AgglomerateSized(d Condensed, l Linkage, sizes []int) (*Dendrogram, error) {
 	n := d.N
