@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"rebound/cmd/rebound/internal/pipeline"
+	"rebound/cmd/rebound/internal/view"
 )
 
 // Station is one feature of the layer.
@@ -34,12 +35,12 @@ type Station struct {
 
 // Render returns the map layer of a finished run (stations.geojson).
 func Render(r *pipeline.Run) ([]byte, error) {
-	return Encode(Stations(r))
+	return Encode(Stations(r, view.Of(r)))
 }
 
-// Stations collects the layer's features from a finished run, in rank
-// order.
-func Stations(r *pipeline.Run) []Station {
+// Stations collects the layer's features from a finished run and its
+// optional results, in rank order.
+func Stations(r *pipeline.Run, e view.Extras) []Station {
 	res := r.Result
 	out := make([]Station, 0, len(res.Order))
 	for _, i := range res.Order {
@@ -50,6 +51,14 @@ func Stations(r *pipeline.Run) []Station {
 			Score: res.Score[i], Rank: res.Rank[i],
 			Events: r.Raw.Events[i], Flags: res.Flags[i],
 		})
+		st := &out[len(out)-1]
+		if s := e.Sensitivity; s != nil && s.Low[i] > 0 {
+			st.RankLow, st.RankHigh, st.Stability = s.Low[i], s.High[i], s.Stability[i]
+		}
+		if c := e.Clusters; c != nil && c.Labels[i] >= 0 {
+			st.Cluster = c.Labels[i] + 1
+			st.Profile = c.Profiles[c.Labels[i]].Description
+		}
 	}
 	return out
 }

@@ -196,6 +196,27 @@ func TestRenderMatchesRanking(t *testing.T) {
 	if !bytes.Equal(data, again) {
 		t.Error("two renders of the same run differ")
 	}
+
+	// With the optional results, each feature carries its interval and
+	// cluster.
+	e := testrun.Extras(t, r, 4)
+	data, err = Encode(Stations(r, e))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if features, err = validate(data); err != nil {
+		t.Fatal(err)
+	}
+	for k, i := range r.Result.Order {
+		p := features[k]["properties"].(map[string]any)
+		want := map[string]string{"rank_low": fmt.Sprint(e.Sensitivity.Low[i]), "rank_high": fmt.Sprint(e.Sensitivity.High[i]),
+			"stability": e.Sensitivity.Stability[i], "cluster": fmt.Sprint(e.Clusters.Labels[i] + 1)}
+		for key, w := range want {
+			if got := fmt.Sprint(p[key]); got != w {
+				t.Errorf("%s: %s = %s, want %s", r.Raw.Stations[i], key, got, w)
+			}
+		}
+	}
 }
 
 func TestEncodeOptional(t *testing.T) {
