@@ -305,9 +305,8 @@ func (r *Run) passSeries(maxErrors int) []error {
 		r.Warnings = append(r.Warnings, &index.Warning{Station: id, Msg: "in the series but not in the attribute table; skipped"})
 	}
 	for _, s := range r.Stations {
-		for _, w := range s.Warnings {
-			r.Warnings = append(r.Warnings, &index.Warning{Station: s.ID, Msg: w.Error()})
-		}
+		// The analyses name the station in their warnings already.
+		r.Warnings = append(r.Warnings, s.Warnings...)
 	}
 	r.Series = r.seriesIndicators()
 	if derive {
