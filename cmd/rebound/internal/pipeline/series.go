@@ -309,6 +309,11 @@ func (r *Run) passSeries(maxErrors int) []error {
 		r.Warnings = append(r.Warnings, s.Warnings...)
 	}
 	r.Series = r.seriesIndicators()
+	for _, st := range r.Attrs.Stations {
+		if _, ok := r.Series.Missing[st.ID]; ok {
+			r.Warnings = append(r.Warnings, &index.Warning{Station: st.ID, Msg: "no daily series in the inputs; indicators from events and criteria are missing"})
+		}
+	}
 	if derive {
 		r.Events = derivedTable(r.Stations)
 	}
