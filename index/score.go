@@ -7,7 +7,9 @@ import (
 	"slices"
 
 	"rebound/config"
+	"rebound/index/rankstat"
 	"rebound/index/robust"
+	"rebound/index/sensitivity"
 )
 
 // Spec is everything Score needs besides the raw values.
@@ -67,10 +69,15 @@ type Result struct {
 	// geometric aggregation, the factor u_ij^w'_j by which the indicator
 	// multiplies the composite.
 	Contribution [][]float64
-	// Composite is the aggregate before scaling to 0–100.
+	// Composite is the aggregate before scaling to 0–100, computed by
+	// sensitivity.Composite (see Model).
 	Composite []float64
 	Score     []float64 // 0–100, higher = more resilient; NaN with no indicator
-	Rank      []int     // 1 = most resilient; ties share the lower rank
+	// Rank ranks the composites with rankstat.Ranks: 1 = most resilient,
+	// equal composites share the lower rank (1, 2, 2, 4), stations without
+	// a score come last and share a rank. It is the base ranking of the
+	// sensitivity analyses of Model.
+	Rank []int
 	// Order lists station indices from rank 1 down, ties by identifier.
 	Order    []int
 	Flags    [][]string
@@ -88,7 +95,10 @@ type Result struct {
 // The score is 100·C for arithmetic aggregation of bounded values,
 // 100·(C − floor)/(1 − floor) for geometric aggregation (so both run from 0
 // to 100), and, when any indicator is a z-score, the composite rescaled to
-// 0–100 over the stations, 100·(C − min C)/(max C − min C).
+// 0–100 over the stations, 100·(C − min C)/(max C − min C). The composite
+// C is sensitivity.Composite's, and the ranks are rankstat.Ranks of C, so
+// that the ranking and the sensitivity analyses of Result.Model agree
+// exactly; the listing order breaks ties by station identifier.
 func Score(raw *Raw, spec Spec) (*Result, error) {
 	n, k := len(raw.Stations), len(raw.Indicators)
 	if len(spec.Methods) != k || len(spec.Weights) != k {
@@ -99,9 +109,7 @@ func Score(raw *Raw, spec Spec) (*Result, error) {
 		Normalized:   matrix(n, k),
 		Imputed:      make([][]bool, n),
 		Contribution: matrix(n, k),
-		Composite:    make([]float64, n),
 		Score:        make([]float64, n),
-		Rank:         make([]int, n),
 		Flags:        make([][]string, n),
 	}
 	for i := range n {
@@ -173,8 +181,13 @@ func Score(raw *Raw, spec Spec) (*Result, error) {
 		}
 	}
 
-	// Aggregation.
+	// Aggregation: the composites, then each indicator's contribution.
 	geo := spec.Aggregation == config.Geometric
+	composite, err := res.Model().Composites()
+	if err != nil {
+		return nil, err
+	}
+	res.Composite = composite
 	for i := range n {
 		wsum := 0.0
 		for j := range k {
@@ -183,16 +196,11 @@ func Score(raw *Raw, spec Spec) (*Result, error) {
 			}
 		}
 		if !(wsum > 0) {
-			res.Composite[i] = math.NaN()
 			for j := range k {
 				res.Contribution[i][j] = math.NaN()
 			}
 			res.Flags[i] = append(res.Flags[i], "no_score")
 			continue
-		}
-		c := 0.0
-		if geo {
-			c = 1
 		}
 		for j := range k {
 			v := res.Normalized[i][j]
@@ -202,15 +210,11 @@ func Score(raw *Raw, spec Spec) (*Result, error) {
 			}
 			w := spec.Weights[j] / wsum
 			if geo {
-				f := math.Pow(spec.Floor+(1-spec.Floor)*v, w)
-				res.Contribution[i][j] = f
-				c *= f
+				res.Contribution[i][j] = math.Pow(spec.Floor+(1-spec.Floor)*v, w)
 			} else {
 				res.Contribution[i][j] = w * v
-				c += w * v
 			}
 		}
-		res.Composite[i] = c
 	}
 
 	// Scaling to 0–100.
@@ -257,7 +261,7 @@ func Score(raw *Raw, spec Spec) (*Result, error) {
 		}
 	}
 
-	res.Rank, res.Order = Rank(res.Score, raw.Stations)
+	res.Rank, res.Order = rankComposites(res.Composite, raw.Stations)
 
 	for i := range n {
 		for j, ind := range raw.Indicators {
@@ -273,10 +277,43 @@ func Score(raw *Raw, spec Spec) (*Result, error) {
 	return res, nil
 }
 
-// Rank ranks scores from highest (rank 1) to lowest. Scores within 1e-9 of
-// each other tie and share the lower rank number (competition ranking:
-// 1, 2, 2, 4); NaN scores come last and share a rank. order lists the
-// indices from rank 1 down, breaking ties by id.
+// Model returns the composite indicator of the result for the sensitivity
+// analyses: the normalised values (NaN where a value is missing and its
+// weight redistributed; imputed values as used), the weights and the
+// aggregation. Its base ranking is res.Rank.
+func (res *Result) Model() sensitivity.Model {
+	k := len(res.Spec.Weights)
+	m := sensitivity.Model{Values: make([]float64, 0, len(res.Normalized)*k), Weights: res.Spec.Weights}
+	for _, row := range res.Normalized {
+		m.Values = append(m.Values, row...)
+	}
+	if res.Spec.Aggregation == config.Geometric {
+		m.Aggregation, m.Floor = sensitivity.Geometric, res.Spec.Floor
+	}
+	return m
+}
+
+// rankComposites ranks composites with rankstat.Ranks and lists the
+// stations from rank 1 down, ties by identifier.
+func rankComposites(composite []float64, id []string) (rank, order []int) {
+	r := rankstat.Ranks(nil, composite)
+	rank = make([]int, len(r))
+	order = make([]int, len(r))
+	for i, x := range r {
+		rank[i], order[i] = int(x), i
+	}
+	slices.SortFunc(order, func(a, b int) int {
+		return cmp.Or(cmp.Compare(rank[a], rank[b]), cmp.Compare(id[a], id[b]))
+	})
+	return rank, order
+}
+
+// Rank ranks finished scores, such as the rounded scores of a report, from
+// highest (rank 1) to lowest. Scores within 1e-9 of each other tie and
+// share the lower rank number (competition ranking: 1, 2, 2, 4); NaN
+// scores come last and share a rank. order lists the indices from rank 1
+// down, breaking ties by id. Score does not use it: it ranks the unrounded
+// composites exactly (see Result.Rank).
 func Rank(score []float64, id []string) (rank, order []int) {
 	n := len(score)
 	order = make([]int, n)

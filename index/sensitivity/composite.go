@@ -138,6 +138,19 @@ type Model struct {
 	Floor float64
 }
 
+// Composites returns every station's composite under the base weights,
+// scaled to sum to 1, exactly as the analyses compute it: their base
+// ranking is rankstat.Ranks(nil, composites). It fails on the models the
+// analyses refuse (no stations, an infinite value, weights that sum to 0,
+// a floor out of range).
+func (m Model) Composites() ([]float64, error) {
+	p, err := m.prepare()
+	if err != nil {
+		return nil, err
+	}
+	return p.base, nil
+}
+
 // prepared is a validated Model in the form the analyses use.
 type prepared struct {
 	n, k int

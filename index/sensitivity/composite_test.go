@@ -118,6 +118,9 @@ func TestBaseRankingMatchesComposite(t *testing.T) {
 			if !floats.Same(p.base, Composite(nil, values, p.w, agg, 0)) {
 				t.Errorf("%v: base composites differ from Composite", agg)
 			}
+			if c, err := m.Composites(); err != nil || !floats.Same(c, p.base) {
+				t.Errorf("%v: Model.Composites differs from the base composites (err %v)", agg, err)
+			}
 		}
 	}
 }
