@@ -67,7 +67,7 @@ func newBook() (*book, error) {
 	if b.wrap, err = b.f.NewStyle(&excelize.Style{Alignment: &excelize.Alignment{WrapText: true, Vertical: "top"}}); err != nil {
 		return nil, err
 	}
-	if b.text, err = b.f.NewStyle(&excelize.Style{NumFmt: 49, Alignment: &excelize.Alignment{Vertical: "top"}}); err != nil { // 49 = "@", text
+	if b.text, err = b.f.NewStyle(&excelize.Style{NumFmt: 49, Alignment: &excelize.Alignment{Vertical: "top", Indent: 1}}); err != nil { // 49 = "@", text
 		return nil, err
 	}
 	for _, nf := range []string{fmtInt, fmtScore, fmt2, fmt3, fmt4, fmtDate, fmtGen} {
@@ -114,6 +114,13 @@ func (b *book) tableAt(sheet string, top int, cols []column, rows [][]any, freez
 	}
 	last := colName(len(cols))
 	b.set(f.SetCellStyle(sheet, cell(1, top), cell(len(cols), top), b.header))
+	// Headers wrap; give the row the height of the longest.
+	lines := 1
+	for _, c := range cols {
+		per := max(1, int(c.Width*1.05))
+		lines = max(lines, (len([]rune(c.Header))+per-1)/per)
+	}
+	b.set(f.SetRowHeight(sheet, top, float64(15*lines)))
 	for i, row := range rows {
 		r := top + 1 + i
 		for j, v := range row {

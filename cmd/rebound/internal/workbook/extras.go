@@ -17,7 +17,7 @@ func (w *writer) clusters() {
 	for _, f := range c.Features {
 		cols = append(cols, column{f, max(10, min(24, float64(len(f))*0.9)), fmtGen})
 	}
-	cols = append(cols, column{"Left out because", 30, fmtText})
+	cols = append(cols, column{"Left out because", 30, fmtText}, column{"Cluster label", 11, fmtText})
 	// Rows by cluster, then station order, so each cluster is one block
 	// for the scatter chart.
 	idx := make([]int, len(c.Labels))
@@ -51,11 +51,15 @@ func (w *writer) clusters() {
 			}
 			row = append(row, nanBlank(v))
 		}
-		row = append(row, c.Reasons[i])
+		label := ""
+		if c.Labels[i] >= 0 {
+			label = fmt.Sprintf("cluster %d", c.Labels[i]+1)
+		}
+		row = append(row, c.Reasons[i], label)
 		rows = append(rows, row)
 	}
 	for q := range w.scatter {
-		w.scatter[q].cx, w.scatter[q].cy = 5+fa, 5+fb
+		w.scatter[q].cx, w.scatter[q].cy, w.scatter[q].cn = 5+fa, 5+fb, len(cols)
 		w.scatter[q].xLabel, w.scatter[q].yLabelXY = c.Features[fa], c.Features[min(fb, len(c.Features)-1)]
 	}
 	w.table(s, cols, rows)
@@ -158,6 +162,21 @@ func (w *writer) sensitivity() {
 		w.tableAt(s, row, sc, srows, false)
 		row += len(srows) + 2
 	}
+	w.intervalTop = row
+	ic := []column{{"Station", 20, fmtText}, {"Rank", 10, fmtInt}, {"Best rank, " + sv.Interval, 16, fmtInt},
+		{"Worst rank, " + sv.Interval, 16, fmtInt}, {"Chart: bar start (best rank − 0.5)", 13, fmt2}, {"Chart: bar length (ranks)", 13, fmtInt},
+		{"Stability", 16, fmtText}}
+	var irows [][]any
+	for _, i := range w.r.Result.Order {
+		if sv.Low[i] <= 0 {
+			continue
+		}
+		irows = append(irows, []any{w.r.Raw.Stations[i], w.r.Result.Rank[i], sv.Low[i], sv.High[i],
+			float64(sv.Low[i]) - 0.5, sv.High[i] - sv.Low[i] + 1, sv.Stability[i]})
+	}
+	w.tableAt(s, row, ic, irows, false)
+	w.intervalRows = len(irows)
+	row += len(irows) + 2
 	w.str(s, cell(1, row), "Monte Carlo over the weights")
 	w.style(s, cell(1, row), cell(1, row), w.bold)
 	counts := map[string]int{}
@@ -217,47 +236,47 @@ func (w *writer) rankingChart() {
 	}
 	last := n + 1
 	st, sc := w.rankCol["station"], w.rankCol["score"]
-	width := uint(min(1400, max(640, 22*n+200)))
-	bars := &excelize.Chart{
-		Type: excelize.Col,
+	height := uint(max(320, 16*n+150))
+	solid := func(c string) excelize.Fill { return excelize.Fill{Type: "pattern", Pattern: 1, Color: []string{c}} }
+	gap := uint(40)
+	w.set(w.f.AddChart(s, cell(w.rankCol["ncols"]+2, 2), &excelize.Chart{
+		Type: excelize.Bar,
 		Series: []excelize.ChartSeries{{
 			Name: fmt.Sprintf("'%s'!$%s$1", s, colName(sc)), Categories: ref(s, st, 2, st, last), Values: ref(s, sc, 2, sc, last),
-			Fill: excelize.Fill{Type: "pattern", Pattern: 1, Color: []string{seriesColours[0]}},
+			Fill: solid(seriesColours[0]),
 		}},
-		Title:     title("Score by station, in rank order"),
-		Legend:    excelize.ChartLegend{Position: "bottom"},
-		Dimension: excelize.ChartDimension{Width: width, Height: 420},
-		XAxis:     excelize.ChartAxis{Title: axisTitle("station (rank 1 at the left)"), Font: excelize.Font{Size: 8}},
-		YAxis:     excelize.ChartAxis{Title: axisTitle("score (0–100)"), Minimum: ptr(0.0), Maximum: ptr(100.0), MajorGridLines: true},
-		Format:    excelize.GraphicOptions{OffsetX: 10, OffsetY: 10},
-	}
-	anchor := cell(w.rankCol["ncols"]+2, 2)
+		Title:     title("Score by station (rank 1 at the top)"),
+		Legend:    excelize.ChartLegend{Position: "none"},
+		Dimension: excelize.ChartDimension{Width: 520, Height: height},
+		XAxis:     excelize.ChartAxis{ReverseOrder: true, Font: excelize.Font{Size: 8, Color: "#333333"}},
+		YAxis:     excelize.ChartAxis{Title: axisTitle("score (0–100, higher = more resilient)"), Minimum: ptr(0.0), Maximum: ptr(100.0), MajorGridLines: true, MajorUnit: 20},
+		GapWidth:  &gap,
+	}))
 	sv := w.e.Sensitivity
-	if sv == nil {
-		w.set(w.f.AddChart(s, anchor, bars))
+	if sv == nil || w.intervalRows == 0 {
 		return
 	}
-	// The rank interval as a line chart without lines on a secondary axis:
-	// worst, base and best rank as markers, joined by high-low lines.
-	marker := func(sym string, colour string) excelize.ChartMarker {
-		return excelize.ChartMarker{Symbol: sym, Size: 6, Fill: excelize.Fill{Type: "pattern", Pattern: 1, Color: []string{colour}}}
-	}
-	noLine := excelize.LineOptions{Width: 0.25, Fill: excelize.Fill{Type: "pattern", Pattern: 1, Color: []string{"#FFFFFF"}}}
-	ranks := &excelize.Chart{
-		Type: excelize.Line,
+	// The rank interval as floating bars: an unfilled bar up to the best
+	// rank, then a filled one across the interval (Sensitivity sheet).
+	const d = SheetSensitivity
+	r0, r1 := w.intervalTop+1, w.intervalTop+w.intervalRows
+	overlap := 100
+	w.set(w.f.AddChart(s, cell(w.rankCol["ncols"]+11, 2), &excelize.Chart{
+		Type: excelize.BarStacked,
 		Series: []excelize.ChartSeries{
-			{Name: fmt.Sprintf("'%s'!$%s$1", s, colName(w.rankCol["low"])), Categories: ref(s, st, 2, st, last),
-				Values: ref(s, w.rankCol["low"], 2, w.rankCol["low"], last), Marker: marker("dash", seriesColours[3]), Line: noLine},
-			{Name: fmt.Sprintf("'%s'!$A$1", s), Categories: ref(s, st, 2, st, last),
-				Values: ref(s, 1, 2, 1, last), Marker: marker("circle", seriesColours[1]), Line: noLine},
-			{Name: fmt.Sprintf("'%s'!$%s$1", s, colName(w.rankCol["high"])), Categories: ref(s, st, 2, st, last),
-				Values: ref(s, w.rankCol["high"], 2, w.rankCol["high"], last), Marker: marker("dash", seriesColours[3]), Line: noLine},
+			{Name: fmt.Sprintf("'%s'!$E$%d", d, w.intervalTop), Categories: ref(d, 1, r0, 1, r1), Values: ref(d, 5, r0, 5, r1),
+				Fill: excelize.Fill{Type: "pattern", Pattern: 0}},
+			{Name: fmt.Sprintf("'%s'!$F$%d", d, w.intervalTop), Categories: ref(d, 1, r0, 1, r1), Values: ref(d, 6, r0, 6, r1),
+				Fill: solid(seriesColours[2])},
 		},
-		YAxis: excelize.ChartAxis{Secondary: true, Title: axisTitle("rank (1 = most resilient); interval " + sv.Interval),
-			ReverseOrder: true, Minimum: ptr(1.0), Maximum: ptr(float64(n)), HighLowLines: true},
-	}
-	bars.Title = title("Score (bars) and rank interval under varied weights (markers)")
-	w.set(w.f.AddChart(s, anchor, bars, ranks))
+		Title:     title("Rank interval under varied weights (" + sv.Interval + ")"),
+		Legend:    excelize.ChartLegend{Position: "none"},
+		Dimension: excelize.ChartDimension{Width: 520, Height: height},
+		XAxis:     excelize.ChartAxis{ReverseOrder: true, Font: excelize.Font{Size: 8, Color: "#333333"}},
+		YAxis:     excelize.ChartAxis{Title: axisTitle("rank (1 = most resilient)"), Minimum: ptr(0.0), Maximum: ptr(float64(n) + 0.5), MajorGridLines: true},
+		Overlap:   &overlap,
+		GapWidth:  &gap,
+	}))
 }
 
 func ptr[T any](v T) *T { return &v }
@@ -279,7 +298,7 @@ func (w *writer) tornadoChart() {
 		Title:     title(fmt.Sprintf("Largest rank change when one weight moves ±%g %%", 100*sv.Step)),
 		Legend:    excelize.ChartLegend{Position: "bottom"},
 		Dimension: excelize.ChartDimension{Width: 640, Height: uint(max(300, 40*n+140))},
-		XAxis:     excelize.ChartAxis{ReverseOrder: true, Title: axisTitle("indicator (largest swing at the top)")},
+		XAxis:     excelize.ChartAxis{ReverseOrder: true, TickLabelPosition: excelize.ChartTickLabelLow, Font: excelize.Font{Size: 9, Color: "#333333"}},
 		YAxis:     excelize.ChartAxis{Title: axisTitle("rank change (ranks): weight lowered to the left, raised to the right"), MajorGridLines: true, NumFmt: excelize.ChartNumFmt{CustomNumFmt: "0;0"}},
 		Overlap:   &overlap,
 		GapWidth:  &gap,
@@ -292,7 +311,7 @@ func (w *writer) scatterChart() {
 	symbols := []string{"circle", "square", "triangle", "diamond", "x", "star"}
 	for q, sc := range w.scatter {
 		series = append(series, excelize.ChartSeries{
-			Name:       sc.name,
+			Name:       fmt.Sprintf("'%s'!$%s$%d", s, colName(sc.cn), sc.r0),
 			Categories: ref(s, sc.cx, sc.r0, sc.cx, sc.r1),
 			Values:     ref(s, sc.cy, sc.r0, sc.cy, sc.r1),
 			Marker: excelize.ChartMarker{Symbol: symbols[q%len(symbols)], Size: 7,

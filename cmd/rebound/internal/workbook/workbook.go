@@ -86,6 +86,9 @@ func render(r *pipeline.Run, man *report.Manifest, e view.Extras) ([]byte, error
 		}
 	}
 	w.charts()
+	for _, name := range w.present {
+		w.printSetup(name)
+	}
 	b.f.SetActiveSheet(0)
 	date := man.RunDate + "T00:00:00Z"
 	title := r.Config.Title
@@ -118,13 +121,26 @@ type writer struct {
 	rankCol map[string]int
 	// tornadoRows and profile ranges, for the charts.
 	tornadoRows int
-	scatter     []scatterSeries
+	// intervalTop is the header row of the rank-interval table on the
+	// Sensitivity sheet, intervalRows its number of rows.
+	intervalTop, intervalRows int
+	scatter                   []scatterSeries
 }
 
 type scatterSeries struct {
-	name             string
-	r0, r1, cx, cy   int
-	xLabel, yLabelXY string
+	name               string
+	r0, r1, cx, cy, cn int
+	xLabel, yLabelXY   string
+}
+
+// printSetup prints a sheet landscape, one page wide, repeating its
+// header row on every page.
+func (w *writer) printSetup(sheet string) {
+	w.set(w.f.SetSheetProps(sheet, &excelize.SheetPropsOptions{FitToPage: ptr(true)}))
+	w.set(w.f.SetPageLayout(sheet, &excelize.PageLayoutOptions{Orientation: ptr("landscape"), FitToWidth: ptr(1), FitToHeight: ptr(0)}))
+	if sheet != SheetSummary {
+		w.set(w.f.SetDefinedName(&excelize.DefinedName{Name: "_xlnm.Print_Titles", RefersTo: fmt.Sprintf("'%s'!$1:$1", sheet), Scope: sheet}))
+	}
 }
 
 func hasCriteria(r *pipeline.Run) bool {

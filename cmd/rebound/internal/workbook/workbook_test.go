@@ -162,12 +162,13 @@ func TestDemoMatchesCSV(t *testing.T) {
 		}
 	}
 
-	// Charts: three, each pointing at its data sheet.
+	// Charts: score bars, rank intervals, tornado and cluster scatter,
+	// each pointing at its data.
 	charts := chartRefs(t, data)
-	if len(charts) != 3 {
-		t.Fatalf("%d charts, want 3: %v", len(charts), charts)
+	if len(charts) != 4 {
+		t.Fatalf("%d charts, want 4: %v", len(charts), charts)
 	}
-	for _, want := range []string{"'Ranking'!$E$2:$E$33", "'Sensitivity'!$G$2:$G$9", "'Clusters'!"} {
+	for _, want := range []string{"'Ranking'!$E$2:$E$33", "'Sensitivity'!$F$23:$F$54", "'Sensitivity'!$G$2:$G$9", "'Clusters'!"} {
 		found := false
 		for _, refs := range charts {
 			for _, rf := range refs {
