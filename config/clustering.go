@@ -238,3 +238,11 @@ const templateClustering = `
 # Largest lag in days tried for the lag of water behind air temperature.
 # max_lag = 10
 `
+
+// ValidateClustering checks the [clustering] section alone, for a run that
+// clusters a feature table without a configuration file.
+func (c *Config) ValidateClustering() []error {
+	var errs []error
+	c.validateClustering(c.reporter(&errs))
+	return errs
+}

@@ -199,7 +199,7 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 
 func runPipeline(cfgPath, out string, seed *uint64, all, quiet bool, stdout, stderr io.Writer) error {
 	prog := newProgress(stderr, quiet)
-	r, errs := pipeline.LoadWith(cfgPath, pipeline.Options{Progress: prog.stations})
+	r, errs := pipeline.LoadWith(cfgPath, pipeline.Options{Progress: prog.stations, ClusterProgress: prog.stage, Seed: seed})
 	prog.done()
 	if len(errs) > 0 {
 		return reportProblems(stderr, errs)

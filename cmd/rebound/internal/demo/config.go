@@ -186,6 +186,11 @@ weight = 0.05
 
 [normalization]
 method = "minmax"
+# "all" ranks every station against every other. scope = "cluster" would
+# normalise within the clusters found below instead, comparing each station
+# with stations that behave alike (a spring-fed creek with spring-fed
+# creeks): a screening of how each fares among its peers, not across the
+# region.
 scope = "all"
 
 [weighting]
@@ -205,6 +210,31 @@ dryness = "fraction"
 [output]
 dir = "out"
 print = 8
+
+# Clustering of the stations by features of their daily records ("rebound
+# cluster" runs it alone). The features describe each station's water
+# temperature and flow regime. Statistics of air temperature itself are left
+# out: within one small region they differ between stations mostly by the
+# years each record covers, not by how the rivers behave.
+[clustering]
+features = [
+  "water_temperature.mean", "water_temperature.sd", "water_temperature.skew",
+  "water_temperature.lag1", "water_temperature.amplitude", "water_temperature.phase",
+  "water_temperature.p10", "water_temperature.p90",
+  "water_temperature.thermal_sensitivity", "water_temperature.air_lag",
+  "discharge.mean", "discharge.cv", "discharge.skew", "discharge.lag1",
+  "discharge.amplitude", "discharge.phase",
+  "discharge.flashiness", "discharge.bfi", "discharge.q90_q50",
+]
+scale = "zscore"
+method = "ward"
+# k = 0 chooses the number of clusters by the silhouette, from k_min to k_max.
+k = 0
+k_min = 2
+k_max = 10
+bootstrap = 100
+min_coverage = 0.8
+min_years = 5
 `
 
 const readme = `Caldermoor: rebound's demonstration region

@@ -55,7 +55,8 @@ type Run struct {
 	// workbook and memo.
 	Warnings []error
 
-	progress func(int)
+	progress        func(int)
+	clusterProgress func(stage string, done, total int)
 }
 
 // Options adjusts how a run reads its inputs.
@@ -63,6 +64,17 @@ type Options struct {
 	// Progress, when set, is called with the number of stations read so
 	// far while the daily series are read.
 	Progress func(stations int)
+	// Clustering, when set, turns clustering on (with the defaults when
+	// the configuration has no [clustering] section) and adjusts its
+	// settings before the inputs are read: the cluster command's flags.
+	Clustering func(*config.Clustering)
+	// Seed, when set, replaces the configuration's seed before anything
+	// random is drawn (clustering runs while the inputs are read).
+	Seed *uint64
+	// ClusterProgress, when set, is called as clustering goes through its
+	// stages ("scoring k", "partitions", "bootstrap") with the work done
+	// and the total.
+	ClusterProgress func(stage string, done, total int)
 }
 
 // Load reads and validates the configuration at path and every input it
@@ -90,7 +102,19 @@ func LoadInputs(path string, opt Options) (*Run, []error) {
 	if len(errs) > 0 {
 		return nil, errs
 	}
-	r := &Run{Config: cfg, progress: opt.Progress}
+	if opt.Seed != nil {
+		cfg.Seed = *opt.Seed
+	}
+	if opt.Clustering != nil {
+		if cfg.Clustering == nil {
+			cfg.Clustering = config.DefaultClustering()
+		}
+		opt.Clustering(cfg.Clustering)
+		if errs := cfg.Validate(); len(errs) > 0 {
+			return nil, errs
+		}
+	}
+	r := &Run{Config: cfg, progress: opt.Progress, clusterProgress: opt.ClusterProgress}
 	if in, err := digest("config", path); err == nil {
 		r.Inputs = append(r.Inputs, in)
 	}
@@ -163,8 +187,11 @@ func (r *Run) computeIndicators() []error {
 // Score normalises, aggregates and ranks.
 func (r *Run) Score() error {
 	var groups []string
-	if r.Config.Normalization.Scope == config.ScopeGroup {
+	switch r.Config.Normalization.Scope {
+	case config.ScopeGroup:
 		groups = r.Raw.Groups
+	case config.ScopeCluster:
+		groups = r.clusterGroups()
 	}
 	res, err := index.Score(r.Raw, index.SpecFrom(r.Config, r.Weights, groups))
 	if err != nil {

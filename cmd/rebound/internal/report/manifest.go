@@ -21,21 +21,22 @@ type Meta struct {
 
 // Manifest is the content of run.json.
 type Manifest struct {
-	Tool       string          `json:"tool"`
-	Version    string          `json:"version"`
-	Go         string          `json:"go"`
-	RunDate    string          `json:"run_date"`
-	ConfigFile string          `json:"config_file"`
-	Seed       uint64          `json:"seed"`
-	Config     map[string]any  `json:"config"`
-	Inputs     []ManifestInput `json:"inputs"`
-	Weights    ManifestWeights `json:"weights"`
-	Series     *ManifestSeries `json:"series,omitempty"`
-	Stations   int             `json:"stations"`
-	Scored     int             `json:"scored"`
-	Outputs    []string        `json:"outputs"`
-	Warnings   []string        `json:"warnings"`
-	Caution    string          `json:"caution"`
+	Tool       string              `json:"tool"`
+	Version    string              `json:"version"`
+	Go         string              `json:"go"`
+	RunDate    string              `json:"run_date"`
+	ConfigFile string              `json:"config_file"`
+	Seed       uint64              `json:"seed"`
+	Config     map[string]any      `json:"config"`
+	Inputs     []ManifestInput     `json:"inputs"`
+	Weights    ManifestWeights     `json:"weights"`
+	Series     *ManifestSeries     `json:"series,omitempty"`
+	Clustering *ManifestClustering `json:"clustering,omitempty"`
+	Stations   int                 `json:"stations"`
+	Scored     int                 `json:"scored"`
+	Outputs    []string            `json:"outputs"`
+	Warnings   []string            `json:"warnings"`
+	Caution    string              `json:"caution"`
 }
 
 // ManifestInput is one input file.
@@ -120,6 +121,7 @@ func BuildManifest(r *pipeline.Run, m Meta) (*Manifest, error) {
 	for _, w := range r.Warnings {
 		man.Warnings = append(man.Warnings, w.Error())
 	}
+	man.Clustering = clusterManifest(r)
 	if sum := r.SeriesSummary; sum != nil {
 		ms := &ManifestSeries{Rows: sum.Rows, Stations: sum.Stations, Skipped: sum.Skipped, Unknown: sum.Unknown,
 			Totals: map[string]ManifestCounts{}, Station: map[string]map[string]ManifestCounts{}}

@@ -32,21 +32,31 @@ func Round(x float64, d int) string {
 	return s
 }
 
-// RankingColumns are the columns of ranking.csv.
+// RankingColumns are the columns of ranking.csv. A run that clusters adds
+// a last column, cluster: the station's cluster (from 1) in the partition
+// used for peer groups, blank for a station left out.
 var RankingColumns = []string{"rank", "station", "name", "group", "score", "events", "latitude", "longitude", "flags"}
 
 // WriteRanking writes ranking.csv: one row per station, from rank 1 down
 // (ties by station identifier). The score keeps full precision.
 func WriteRanking(w io.Writer, r *pipeline.Run) error {
 	cw := csv.NewWriter(w)
-	cw.Write(RankingColumns)
+	head := RankingColumns
+	if r.Clusters != nil {
+		head = append(head[:len(head):len(head)], "cluster")
+	}
+	cw.Write(head)
 	res := r.Result
 	for _, i := range res.Order {
 		s := r.Attrs.Stations[i]
-		cw.Write([]string{
+		rec := []string{
 			strconv.Itoa(res.Rank[i]), s.ID, s.Name, s.Group, Num(res.Score[i]),
 			strconv.Itoa(r.Raw.Events[i]), Num(s.Latitude), Num(s.Longitude), strings.Join(res.Flags[i], ";"),
-		})
+		}
+		if r.Clusters != nil {
+			rec = append(rec, clusterCell(r.Clusters, s.ID))
+		}
+		cw.Write(rec)
 	}
 	cw.Flush()
 	return cw.Error()

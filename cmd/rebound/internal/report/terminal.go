@@ -27,14 +27,21 @@ func PrintRanking(w io.Writer, r *pipeline.Run, n int, all bool) {
 	for _, s := range r.Attrs.Stations {
 		idW = max(idW, utf8.RuneCountInString(s.ID))
 	}
-	fmt.Fprintf(w, "%4s  %-*s  %-*s  %6s  %6s  %s\n", "rank", idW, "station", nameW, "name", "score", "events", "flags")
+	cl, clHead := "", ""
+	if r.Clusters != nil {
+		clHead = "cluster  "
+	}
+	fmt.Fprintf(w, "%4s  %-*s  %-*s  %6s  %6s  %s%s\n", "rank", idW, "station", nameW, "name", "score", "events", clHead, "flags")
 	row := func(i int) {
 		s := r.Attrs.Stations[i]
 		score := Round(res.Score[i], 1)
 		if score == "" {
 			score = "-"
 		}
-		fmt.Fprintf(w, "%4d  %-*s  %-*s  %6s  %6d  %s\n", res.Rank[i], idW, s.ID, nameW, clip(s.Name, 36), score, r.Raw.Events[i], strings.Join(res.Flags[i], " "))
+		if r.Clusters != nil {
+			cl = fmt.Sprintf("%7s  ", clusterCell(r.Clusters, s.ID))
+		}
+		fmt.Fprintf(w, "%4d  %-*s  %-*s  %6s  %6d  %s%s\n", res.Rank[i], idW, s.ID, nameW, clip(s.Name, 36), score, r.Raw.Events[i], cl, strings.Join(res.Flags[i], " "))
 	}
 	if all || total <= 2*n {
 		for _, i := range res.Order {
