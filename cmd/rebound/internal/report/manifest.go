@@ -32,11 +32,14 @@ type Manifest struct {
 	Weights    ManifestWeights     `json:"weights"`
 	Series     *ManifestSeries     `json:"series,omitempty"`
 	Clustering *ManifestClustering `json:"clustering,omitempty"`
-	Stations   int                 `json:"stations"`
-	Scored     int                 `json:"scored"`
-	Outputs    []string            `json:"outputs"`
-	Warnings   []string            `json:"warnings"`
-	Caution    string              `json:"caution"`
+	// Sensitivity summarises the sensitivity analysis; absent when it did
+	// not run.
+	Sensitivity *ManifestSensitivity `json:"sensitivity,omitempty"`
+	Stations    int                  `json:"stations"`
+	Scored      int                  `json:"scored"`
+	Outputs     []string             `json:"outputs"`
+	Warnings    []string             `json:"warnings"`
+	Caution     string               `json:"caution"`
 }
 
 // ManifestInput is one input file.
@@ -122,6 +125,7 @@ func BuildManifest(r *pipeline.Run, m Meta) (*Manifest, error) {
 		man.Warnings = append(man.Warnings, w.Error())
 	}
 	man.Clustering = clusterManifest(r)
+	man.Sensitivity = manifestSensitivity(r)
 	if sum := r.SeriesSummary; sum != nil {
 		ms := &ManifestSeries{Rows: sum.Rows, Stations: sum.Stations, Skipped: sum.Skipped, Unknown: sum.Unknown,
 			Totals: map[string]ManifestCounts{}, Station: map[string]map[string]ManifestCounts{}}

@@ -4,6 +4,7 @@ import (
 	"encoding/csv"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -38,10 +39,12 @@ func Round(x float64, d int) string {
 var RankingColumns = []string{"rank", "station", "name", "group", "score", "events", "latitude", "longitude", "flags"}
 
 // WriteRanking writes ranking.csv: one row per station, from rank 1 down
-// (ties by station identifier). The score keeps full precision.
+// (ties by station identifier). The score keeps full precision. When the
+// sensitivity analysis ran, the rank interval and stability class
+// (rank_p5, rank_median, rank_p95, stability) follow the flags.
 func WriteRanking(w io.Writer, r *pipeline.Run) error {
 	cw := csv.NewWriter(w)
-	head := RankingColumns
+	head := append(slices.Clip(RankingColumns), rankingSensitivityColumns(r)...)
 	if r.Clusters != nil {
 		head = append(head[:len(head):len(head)], "cluster")
 	}
@@ -53,6 +56,7 @@ func WriteRanking(w io.Writer, r *pipeline.Run) error {
 			strconv.Itoa(res.Rank[i]), s.ID, s.Name, s.Group, Num(res.Score[i]),
 			strconv.Itoa(r.Raw.Events[i]), Num(s.Latitude), Num(s.Longitude), strings.Join(res.Flags[i], ";"),
 		}
+		rec = append(rec, rankingSensitivityCells(r, i)...)
 		if r.Clusters != nil {
 			rec = append(rec, clusterCell(r.Clusters, s.ID))
 		}

@@ -10,7 +10,8 @@ import (
 )
 
 // PrintRanking prints the ranking table: the top and bottom n stations, or
-// every station when all is set (or the list is short).
+// every station when all is set (or the list is short). When the
+// sensitivity analysis ran, each station's rank interval follows its rank.
 func PrintRanking(w io.Writer, r *pipeline.Run, n int, all bool) {
 	res := r.Result
 	total := len(res.Order)
@@ -31,7 +32,8 @@ func PrintRanking(w io.Writer, r *pipeline.Run, n int, all bool) {
 	if r.Clusters != nil {
 		clHead = "cluster  "
 	}
-	fmt.Fprintf(w, "%4s  %-*s  %-*s  %6s  %6s  %s%s\n", "rank", idW, "station", nameW, "name", "score", "events", clHead, "flags")
+	iv := rankInterval{r}
+	fmt.Fprintf(w, "%4s  %s%-*s  %-*s  %6s  %6s  %s%s\n", "rank", iv.header(), idW, "station", nameW, "name", "score", "events", clHead, "flags")
 	row := func(i int) {
 		s := r.Attrs.Stations[i]
 		score := Round(res.Score[i], 1)
@@ -41,7 +43,7 @@ func PrintRanking(w io.Writer, r *pipeline.Run, n int, all bool) {
 		if r.Clusters != nil {
 			cl = fmt.Sprintf("%7s  ", clusterCell(r.Clusters, s.ID))
 		}
-		fmt.Fprintf(w, "%4d  %-*s  %-*s  %6s  %6d  %s%s\n", res.Rank[i], idW, s.ID, nameW, clip(s.Name, 36), score, r.Raw.Events[i], cl, strings.Join(res.Flags[i], " "))
+		fmt.Fprintf(w, "%4d  %s%-*s  %-*s  %6s  %6d  %s%s\n", res.Rank[i], iv.cell(i), idW, s.ID, nameW, clip(s.Name, 36), score, r.Raw.Events[i], cl, strings.Join(res.Flags[i], " "))
 	}
 	if all || total <= 2*n {
 		for _, i := range res.Order {
@@ -55,6 +57,9 @@ func PrintRanking(w io.Writer, r *pipeline.Run, n int, all bool) {
 		for _, i := range res.Order[total-n:] {
 			row(i)
 		}
+	}
+	if note := iv.note(); note != "" {
+		fmt.Fprintf(w, "\n%s", note)
 	}
 	fmt.Fprintf(w, "\n%s\n", Caution)
 }
