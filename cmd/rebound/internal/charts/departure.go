@@ -137,8 +137,7 @@ func Departure(w Window) ([]byte, error) {
 		names = append(names, fmt.Sprintf("recovered (%d days after the event)", w.RecoveryDays))
 		thumbs = append(thumbs, lineThumb{recStyle})
 	} else {
-		names = append(names, "not recovered within the record shown")
-		thumbs = append(thumbs, lineThumb{draw.LineStyle{Color: Brick, Width: vg.Points(1.4), Dashes: []vg.Length{vg.Points(2), vg.Points(2)}}})
+		p.Title.Text += " (not recovered within the window shown)"
 	}
 	legH := legendHeight(len(names), 2)
 	h := 3.4 * vg.Inch
