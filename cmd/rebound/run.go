@@ -72,6 +72,8 @@ Usage:
   rebound run -config FILE [-out DIR] [-seed N] [-all]   score and rank, write outputs (-quiet: no progress)
   rebound check -config FILE                             validate the configuration and inputs
   rebound events -config FILE [-out DIR] [-quiet]        derive events and criteria from daily series
+  rebound cluster -config FILE [-k N] [-method M] [-out DIR]
+                  [-features FILE] [-scale S] [-quiet]   cluster stations by features of their series
   rebound init [-o FILE] [-force]                        write a commented configuration template
   rebound demo [-out DIR] [-force]                       write an invented demo region and run it
   rebound version                                        print the version
@@ -92,6 +94,9 @@ output.print stations; -all prints every station) and writes into DIR
   indicators.csv  raw, normalised value, weight and contribution per station and indicator
   run.json        manifest: versions, resolved configuration, SHA-256 of every
                   input, row counts, weights used, every warning, the seed
+With a [clustering] section it also clusters the stations (see rebound help
+cluster): the ranking gains a cluster column and the clustering files are
+written too.
 Nothing is written when an input is bad; outputs replace earlier ones
 atomically, and an output path equal to an input is refused.
 `,
@@ -114,6 +119,33 @@ water-temperature criteria, and writes into DIR (default: output.dir):
   criteria.csv  per station and criterion: the 7-day statistic used (7DADM or
                 7-day mean), days above, reliability, resilience, vulnerability
 Progress is shown on stderr when it is a terminal; -quiet silences it.
+`,
+	"cluster": `rebound cluster -config FILE [-k N] [-method M] [-out DIR] [-features FILE] [-scale S] [-quiet]
+
+Groups the stations by features of their daily series (or the columns of a
+feature table), with the configuration's [clustering] settings or their
+defaults, and writes into DIR (default: output.dir; "out" without -config):
+  features.csv           station x feature, original units (readable by -features)
+  clusters.csv           each station's cluster for every method, its silhouette
+                         width, its item in linkage.csv, or why it was left out
+  cluster_scores.csv     silhouette, Calinski-Harabasz, Davies-Bouldin and
+                         within-cluster sum of squares per method and k
+  linkage.csv            merge tables of ward, average, complete and single
+                         linkage, in scipy's linkage-matrix conventions
+  cluster_profiles.csv   per cluster: size, medoid, description, stability,
+                         mean and median of each feature
+  cluster_agreement.csv  adjusted Rand index between every two methods
+  cluster_pca.csv        explained variance and loadings (with PCA only)
+and prints the chosen k, the clusters with their descriptions and
+stability, the agreement between methods and the stations left out.
+  -k N           number of clusters (default: clustering.k; 0 chooses it by
+                 the silhouette)
+  -method M      partition used for peer groups and profiles: kmeans, ward,
+                 average, complete or single
+  -features FILE cluster a feature table (CSV: station, then numeric columns)
+                 instead of the series; -config may then be left out
+  -scale S       zscore, robust or none
+  -quiet         no progress on stderr
 `,
 	"init": `rebound init [-o FILE] [-force]
 
