@@ -325,8 +325,12 @@ func (m *writer) clusters() error {
 		return nil
 	}
 	m.p("## Groups of stations that behave alike\n\n")
-	m.para("The stations were grouped by %s of their records (%s) into %d clusters (%s). The groups describe how the stations behave; they are not a second ranking.",
-		count(len(c.Features), "feature"), esc(strings.Join(c.Features, ", ")), c.K, esc(c.Method))
+	feats := " (" + esc(strings.Join(c.Features, ", ")) + ")"
+	if len(c.Features) > 6 {
+		feats = " (listed on the workbook's Clusters sheet)"
+	}
+	m.para("The stations were grouped by %s of their records%s into %d clusters (%s). The groups describe how the stations behave; they are not a second ranking.",
+		count(len(c.Features), "feature"), feats, c.K, esc(c.Method))
 	for k, p := range c.Profiles {
 		members := c.Members(k)
 		ids := make([]string, len(members))
@@ -355,13 +359,13 @@ func (m *writer) clusters() error {
 	if c.Tree != nil {
 		labels := make([]string, c.Tree.N)
 		for q := range labels {
-			if q < len(c.TreeStations) {
+			if c.TreeStations != nil {
 				labels[q] = r.Attrs.Stations[c.TreeStations[q]].ID
 			} else {
-				labels[q] = fmt.Sprintf("group %d", q+1)
+				labels[q] = fmt.Sprintf("group %d", q+1) // the items are first-stage groups
 			}
 		}
-		data, err := charts.Dendrogram(c.Tree, labels, c.K, c.Linkage+" linkage distance (standardised features)")
+		data, err := charts.Dendrogram(c.Tree, labels, c.K, "linkage distance ("+c.Linkage+", scaled features)")
 		if err := m.figure(FigDendrogram, "Dendrogram of the stations with the cut into clusters", data, err); err != nil {
 			return err
 		}

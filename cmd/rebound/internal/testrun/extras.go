@@ -86,7 +86,7 @@ func Clusters(tb testing.TB, r *pipeline.Run, k int) *view.Clusters {
 	cols := r.Attrs.Columns
 	var rows []int
 	var data []float64
-	c := &view.Clusters{Method: "Ward linkage", Linkage: "Ward", K: k,
+	c := &view.Clusters{Method: "Ward linkage", Linkage: "Ward linkage", K: k,
 		Labels: make([]int, len(r.Attrs.Stations)), Reasons: make([]string, len(r.Attrs.Stations)),
 		Values: make([][]float64, len(r.Attrs.Stations))}
 	var useCols []int
@@ -135,6 +135,9 @@ func Clusters(tb testing.TB, r *pipeline.Run, k int) *view.Clusters {
 		tb.Fatal(err)
 	}
 	c.Tree, c.TreeStations = tree, rows
+	for _, p := range c.Profiles {
+		c.Medoids = append(c.Medoids, r.Attrs.Stations[rows[p.Medoid]].ID)
+	}
 	c.Silhouette = clustering.Silhouette(&z, labels, nil)
 	if len(rows) < 3 {
 		tb.Fatal(fmt.Sprintf("%d stations to cluster", len(rows)))

@@ -7,6 +7,7 @@ package testrun
 import (
 	"os"
 	"path/filepath"
+	"sync"
 	"testing"
 
 	"rebound/cmd/rebound/internal/demo"
@@ -21,10 +22,22 @@ const (
 	RunDate = "2025-12-02"
 )
 
+var demoRun struct {
+	sync.Mutex
+	r   *pipeline.Run
+	man *report.Manifest
+}
+
 // Demo writes the demo region into a temporary folder, loads and scores it,
-// and returns the run with its manifest.
+// and returns the run with its manifest. The run is computed once per test
+// binary and shared: callers must not change it.
 func Demo(tb testing.TB) (*pipeline.Run, *report.Manifest) {
 	tb.Helper()
+	demoRun.Lock()
+	defer demoRun.Unlock()
+	if demoRun.r != nil {
+		return demoRun.r, demoRun.man
+	}
 	files, err := demo.Files()
 	if err != nil {
 		tb.Fatal(err)
@@ -33,7 +46,8 @@ func Demo(tb testing.TB) (*pipeline.Run, *report.Manifest) {
 	for _, f := range files {
 		m[f.Name] = string(f.Data)
 	}
-	return Load(tb, m, demo.ConfigName)
+	demoRun.r, demoRun.man = Load(tb, m, demo.ConfigName)
+	return demoRun.r, demoRun.man
 }
 
 // Load writes files (name → content; names may contain "/") into a

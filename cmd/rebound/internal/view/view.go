@@ -9,6 +9,9 @@
 package view
 
 import (
+	"math"
+	"slices"
+
 	"rebound/clustering"
 	"rebound/cmd/rebound/internal/pipeline"
 )
@@ -21,7 +24,7 @@ type Extras struct {
 
 // Of returns the optional results a run holds.
 func Of(r *pipeline.Run) Extras {
-	return Extras{}
+	return Extras{Sensitivity: sensitivityOf(r), Clusters: clustersOf(r)}
 }
 
 // Sensitivity is the robustness of the ranking to the weights. Per-station
@@ -86,9 +89,12 @@ type Clusters struct {
 	Values   [][]float64
 	// Profiles describes each cluster, in label order.
 	Profiles []clustering.Profile
+	// Medoids names each cluster's most typical station ("" when none).
+	Medoids []string
 	// Tree is the hierarchical tree of the clustered stations (nil when
-	// none was built); TreeStations maps its items to station indices, and
-	// Linkage names its linkage.
+	// none was built); TreeStations maps its items to station indices (nil
+	// when the items are groups of stations), and Linkage names its
+	// linkage.
 	Tree         *clustering.Dendrogram
 	TreeStations []int
 	Linkage      string
@@ -147,4 +153,137 @@ func (c *Clusters) Leading() (a, b int) {
 		}
 	}
 	return a, b
+}
+
+func sensitivityOf(r *pipeline.Run) *Sensitivity {
+	sr := r.Sensitivity
+	if sr == nil || sr.MonteCarlo == nil {
+		return nil
+	}
+	mc := sr.MonteCarlo
+	n := len(r.Raw.Stations)
+	if len(mc.Stations) != n {
+		return nil
+	}
+	s := &Sensitivity{Samples: mc.Samples, Interval: "5th–95th percentile", TopN: mc.TopN, Spearman: mc.Spearman.Mean,
+		Low: make([]int, n), Median: make([]int, n), High: make([]int, n), Stability: make([]string, n)}
+	for i, st := range mc.Stations {
+		s.Low[i], s.Median[i], s.High[i], s.Stability[i] = int(st.Low), int(st.Median), int(st.High), st.Stability.String()
+	}
+	if oat := sr.OAT; oat != nil && len(oat.Runs) > 0 {
+		// The largest step shows the effects most clearly.
+		for _, run := range oat.Runs {
+			s.Step = max(s.Step, math.Abs(run.Delta))
+		}
+		for j, ind := range r.Raw.Indicators {
+			sw := Swing{Indicator: ind.Name, Down: math.NaN(), Up: math.NaN(), MeanDown: math.NaN(), MeanUp: math.NaN()}
+			for _, run := range oat.Runs {
+				if run.Indicator != j || math.Abs(math.Abs(run.Delta)-s.Step) > 1e-12 {
+					continue
+				}
+				if run.Delta < 0 {
+					sw.Down, sw.MeanDown = float64(run.MaxShift), run.MeanShift
+				} else {
+					sw.Up, sw.MeanUp = float64(run.MaxShift), run.MeanShift
+				}
+			}
+			s.Swings = append(s.Swings, sw)
+		}
+	}
+	if sob := sr.Sobol; sob != nil && sob.Inputs == len(r.Raw.Indicators) && sob.Outputs > n {
+		first, total := sob.FirstOrder(n), sob.TotalOrder(n)
+		at := func(x []float64, j int) float64 {
+			if k := n*sob.Inputs + j; k < len(x) {
+				return x[k]
+			}
+			return math.NaN()
+		}
+		for j, ind := range r.Raw.Indicators {
+			s.Sobol = append(s.Sobol, SobolIndex{Indicator: ind.Name, First: first[j], Total: total[j],
+				FirstLo: at(sob.FirstLo, j), FirstHi: at(sob.FirstHi, j), TotalLo: at(sob.TotalLo, j), TotalHi: at(sob.TotalHi, j)})
+		}
+	}
+	return s
+}
+
+func clustersOf(r *pipeline.Run) *Clusters {
+	cr := r.Clusters
+	if cr == nil {
+		return nil
+	}
+	used := cr.Used()
+	if used == nil || cr.Values == nil {
+		return nil
+	}
+	n := len(r.Attrs.Stations)
+	c := &Clusters{Method: methodName(cr.Method), K: cr.K, Labels: make([]int, n), Reasons: make([]string, n),
+		Values: make([][]float64, n), Profiles: cr.Profiles, Medoids: cr.Medoids, Silhouette: used.Score.Silhouette}
+	for j, f := range cr.Features {
+		if j < len(cr.Units) && cr.Units[j] != "" {
+			f += " (" + cr.Units[j] + ")"
+		}
+		c.Features = append(c.Features, f)
+	}
+	row := map[string]int{}
+	for q, id := range cr.Stations {
+		row[id] = q
+	}
+	reason := map[string]string{}
+	for _, e := range cr.Excluded {
+		reason[e.Station] = e.Reason
+	}
+	station := make([]int, len(cr.Stations)) // clustered row → station index
+	for i := range station {
+		station[i] = -1
+	}
+	for i, st := range r.Attrs.Stations {
+		q, ok := row[st.ID]
+		if !ok {
+			c.Labels[i] = -1
+			c.Reasons[i] = reason[st.ID]
+			if c.Reasons[i] == "" {
+				c.Reasons[i] = "not clustered"
+			}
+			continue
+		}
+		station[q] = i
+		c.Labels[i] = used.Labels[q]
+		c.Values[i] = cr.Values.RawRowView(q)
+	}
+	if t := cr.Table(); t != nil {
+		c.Choice = t.Scores
+	}
+	// The dendrogram: the tree of the partition used, else Ward's.
+	tree := used
+	if tree.Tree == nil {
+		for k := range cr.Partitions {
+			if p := &cr.Partitions[k]; p.Tree != nil && (tree.Tree == nil || p.Method == "ward") {
+				tree = p
+			}
+		}
+	}
+	if tree.Tree != nil && tree.Tree.Dendrogram != nil {
+		c.Tree, c.Linkage = tree.Tree.Dendrogram, methodName(tree.Method)
+		if !tree.Tree.TwoStage && !slices.Contains(station, -1) {
+			c.TreeStations = station
+		}
+	}
+	return c
+}
+
+// methodName names a partition method for readers.
+func methodName(m string) string {
+	switch m {
+	case "kmeans":
+		return "k-means"
+	case "ward":
+		return "Ward linkage"
+	case "average":
+		return "average linkage"
+	case "complete":
+		return "complete linkage"
+	case "single":
+		return "single linkage"
+	}
+	return m
 }

@@ -67,7 +67,7 @@ func (w *writer) clusters() {
 
 func (w *writer) profiles() {
 	const s = SheetProfiles
-	r, c := w.r, w.e.Clusters
+	c := w.e.Clusters
 	cols := []column{{"Cluster", 8, fmtInt}, {"Stations", 9, fmtInt}, {"Description (standardised centroid in words)", 36, fmtText},
 		{"Most typical station (medoid)", 14, fmtText}}
 	for _, f := range c.Features {
@@ -76,8 +76,8 @@ func (w *writer) profiles() {
 	var rows [][]any
 	for k, p := range c.Profiles {
 		medoid := ""
-		if p.Medoid >= 0 && p.Medoid < len(c.TreeStations) {
-			medoid = r.Attrs.Stations[c.TreeStations[p.Medoid]].ID
+		if k < len(c.Medoids) {
+			medoid = c.Medoids[k]
 		}
 		row := []any{k + 1, p.Size, p.Description, medoid}
 		for j := range c.Features {
