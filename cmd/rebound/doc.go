@@ -8,7 +8,7 @@
 //	rebound check -config FILE
 //	rebound events -config FILE [-out DIR] [-quiet]
 //	rebound cluster -config FILE [-k N] [-method M] [-out DIR] [-features FILE] [-scale S] [-quiet]
-//	rebound sensitivity -config FILE [-out DIR] [-seed N]
+//	rebound sensitivity -config FILE [-out DIR] [-seed N] [-samples N] [-quiet]
 //	rebound init [-o FILE] [-force]
 //	rebound demo [-out DIR] [-force] [-quiet]
 //	rebound version

@@ -28,7 +28,7 @@ type SensitivityResult struct {
 	Structural *sensitivity.StructuralResult
 	// Skipped lists the combinations of the structural analysis that were
 	// not scored, each with the reason.
-	Skipped []string
+	Skipped []Skipped
 	// Sobol holds the Sobol indices of the weights: output s < n is the
 	// composite of station s, output n (RankShift) the mean absolute rank
 	// shift from the base ranking. Nil when sensitivity.sobol.enabled is
@@ -48,6 +48,14 @@ type Scenario struct {
 	Aggregation   config.AggMethod
 	Scope         config.Scope
 }
+
+// Skipped is a combination the structural analysis did not score.
+type Skipped struct {
+	Scenario
+	Reason string
+}
+
+func (s Skipped) String() string { return s.Name() + ": " + s.Reason }
 
 // Name names the scenario as "normalisation/aggregation/scope", e.g.
 // "minmax/arithmetic/all".
@@ -168,10 +176,10 @@ func (r *Run) structural(res *SensitivityResult) error {
 	scenarios := []sensitivity.Scenario{{Name: ref.Name(), Scores: r.Result.Composite}}
 	specs := []index.Spec{r.Result.Spec}
 	skip := func(sc Scenario, warn bool, format string, args ...any) {
-		msg := sc.Name() + ": " + fmt.Sprintf(format, args...)
-		res.Skipped = append(res.Skipped, msg)
+		s := Skipped{sc, fmt.Sprintf(format, args...)}
+		res.Skipped = append(res.Skipped, s)
 		if warn {
-			res.Warnings = append(res.Warnings, &index.Warning{Msg: "sensitivity: structural alternative " + msg})
+			res.Warnings = append(res.Warnings, &index.Warning{Msg: "sensitivity: structural alternative " + s.String()})
 		}
 	}
 	for _, norm := range cfg.SensitivityNormalizations() {

@@ -244,7 +244,7 @@ aggregations = ["arithmetic"]`, true,
 				t.Fatalf("skipped %q, want %d", s.Skipped, len(tc.skipped))
 			}
 			for q, p := range tc.skipped {
-				if !strings.HasPrefix(s.Skipped[q], p) {
+				if !strings.HasPrefix(s.Skipped[q].String(), p) {
 					t.Errorf("skipped %q, want %q...", s.Skipped[q], p)
 				}
 			}

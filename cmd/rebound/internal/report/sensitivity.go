@@ -326,7 +326,9 @@ func manifestSensitivity(r *pipeline.Run) *ManifestSensitivity {
 				jnum(sr.Spearman[i]), sr.MeanShift[i]})
 		}
 	}
-	m.Skipped = append(m.Skipped, s.Skipped...)
+	for _, sk := range s.Skipped {
+		m.Skipped = append(m.Skipped, sk.String())
+	}
 	if sob := s.Sobol; sob != nil {
 		o := s.RankShift()
 		ms := &ManifestSobol{BaseSamples: sob.N, Evaluations: sob.Evaluations, Spread: s.Settings.Spread, Bootstrap: sob.Bootstrap, Level: sob.Level,
@@ -546,53 +548,123 @@ func indicatorOrder(k int, key func(int) float64) []int {
 	return order
 }
 
-// structuralParagraph compares the other ways of building the index.
+// structuralParagraph compares the other ways of building the index:
+// first the other normalisations and aggregations at the configured scope,
+// then the other scopes, which answer another question (how a station
+// compares with its peers) and are reported apart.
 func structuralParagraph(r *pipeline.Run) string {
 	s := r.Sensitivity
 	sr := s.Structural
-	skipped := ""
-	if k := len(s.Skipped); k > 0 {
-		skipped = fmt.Sprintf(" %d other combinations were not scored (run.json says why).", k)
-		if k == 1 {
-			skipped = " 1 other combination was not scored (run.json says why)."
-		}
-	}
+	skipped := skippedSentence(s.Skipped)
 	if sr == nil {
 		if skipped == "" {
 			return ""
 		}
 		return "No other way of building the index could be scored." + skipped
 	}
-	widest, width := -1, int32(-1)
+	ref := s.Scenarios[0]
+	var same, other []int
+	for q, sc := range s.Scenarios[1:] {
+		if sc.Scope == ref.Scope {
+			same = append(same, q+1)
+		} else {
+			other = append(other, q+1)
+		}
+	}
+	var parts []string
+	if len(same) > 0 {
+		msg := fmt.Sprintf("Other normalisations and aggregations (%s to the configured %s, named normalisation/aggregation/scope): ",
+			plural(len(same), "alternative"), sr.Names[0])
+		if i, lo, hi := widestRange(r, append([]int{0}, same...)); i >= 0 {
+			msg += fmt.Sprintf("the widest rank range of any station is %s, %s; ", plural(int(hi-lo), "rank"),
+				stationList(r, []int{i}, func(int) string { return fmt.Sprintf("ranks %d–%d", lo, hi) }))
+		}
+		parts = append(parts, msg+spearmanRange(sr, same)+".")
+	}
+	if len(other) > 0 {
+		var scopes []string
+		for _, q := range other {
+			if w := scopeWords(s.Scenarios[q].Scope); !slices.Contains(scopes, w) {
+				scopes = append(scopes, w)
+			}
+		}
+		parts = append(parts, fmt.Sprintf("Normalising %s instead (%s) compares each station with its peers rather than with every station, a different question: %s.",
+			strings.Join(scopes, " or "), plural(len(other), "alternative"), spearmanRange(sr, other)))
+	}
+	return strings.Join(parts, " ") + skipped
+}
+
+// skippedSentence names the combinations not scored, grouped by reason.
+func skippedSentence(skipped []pipeline.Skipped) string {
+	if len(skipped) == 0 {
+		return ""
+	}
+	var reasons []string
+	names := map[string][]string{}
+	for _, sk := range skipped {
+		if names[sk.Reason] == nil {
+			reasons = append(reasons, sk.Reason)
+		}
+		names[sk.Reason] = append(names[sk.Reason], sk.Name())
+	}
+	var parts []string
+	for _, why := range reasons {
+		parts = append(parts, strings.Join(names[why], " and ")+", because "+why)
+	}
+	return " Not scored: " + strings.Join(parts, "; ") + "."
+}
+
+// widestRange returns the station whose rank varies most over the
+// scenarios qs, with its best and worst rank; −1 when every station is
+// unranked.
+func widestRange(r *pipeline.Run, qs []int) (station int, lo, hi int32) {
+	sr := r.Sensitivity.Structural
+	station = -1
 	for _, i := range r.Result.Order {
-		if s.MonteCarlo.Stations[i].Stability == sensitivity.Unranked {
+		if r.Sensitivity.MonteCarlo.Stations[i].Stability == sensitivity.Unranked {
 			continue
 		}
-		if w := sr.Max[i] - sr.Min[i]; w > width {
-			widest, width = i, w
+		a, b := sr.Ranks[qs[0]][i], sr.Ranks[qs[0]][i]
+		for _, q := range qs[1:] {
+			a, b = min(a, sr.Ranks[q][i]), max(b, sr.Ranks[q][i])
+		}
+		if station < 0 || b-a > hi-lo {
+			station, lo, hi = i, a, b
 		}
 	}
-	lo, hi := 1, 1
-	for i := 1; i < len(sr.Spearman); i++ {
-		if sr.Spearman[i] < sr.Spearman[lo] {
-			lo = i
+	return station, lo, hi
+}
+
+// spearmanRange says how far Spearman's rho with the configured ranking
+// runs over the scenarios qs.
+func spearmanRange(sr *sensitivity.StructuralResult, qs []int) string {
+	lo, hi := qs[0], qs[0]
+	for _, q := range qs {
+		if sr.Spearman[q] < sr.Spearman[lo] {
+			lo = q
 		}
-		if sr.Spearman[i] > sr.Spearman[hi] {
-			hi = i
+		if sr.Spearman[q] > sr.Spearman[hi] {
+			hi = q
 		}
-	}
-	msg := fmt.Sprintf("Other ways of building the index (%d alternatives to the configured %s, named normalisation/aggregation/scope): ",
-		len(sr.Names)-1, sr.Names[0])
-	if widest >= 0 {
-		msg += fmt.Sprintf("the widest rank range of any station is %s (%s, ranks %d–%d); ", plural(int(width), "rank"), stationName(r, widest), sr.Min[widest], sr.Max[widest])
 	}
 	if lo == hi {
-		msg += fmt.Sprintf("Spearman's rho with the configured ranking is %s.", Round(sr.Spearman[lo], 3))
-	} else {
-		msg += fmt.Sprintf("Spearman's rho with the configured ranking runs from %s (%s) to %s (%s).",
-			Round(sr.Spearman[lo], 3), sr.Names[lo], Round(sr.Spearman[hi], 3), sr.Names[hi])
+		return fmt.Sprintf("Spearman's rho with the configured ranking is %s", Round(sr.Spearman[lo], 3))
 	}
-	return msg + skipped
+	return fmt.Sprintf("Spearman's rho with the configured ranking runs from %s (%s) to %s (%s)",
+		Round(sr.Spearman[lo], 3), sr.Names[lo], Round(sr.Spearman[hi], 3), sr.Names[hi])
+}
+
+// scopeWords describes a normalisation scope.
+func scopeWords(sc config.Scope) string {
+	switch sc {
+	case config.ScopeAll:
+		return "over all stations together"
+	case config.ScopeGroup:
+		return "within the peer groups of the attribute table"
+	case config.ScopeCluster:
+		return "within the clusters"
+	}
+	return "within scope " + string(sc)
 }
 
 // plural returns "1 rank", "2 ranks".

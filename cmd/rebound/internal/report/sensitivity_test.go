@@ -192,8 +192,8 @@ func TestSensitivitySummary(t *testing.T) {
 		"Robustly in the top 2 (there in at least 95% of the samples): TOP (Top",
 		"The weights that matter most for the ranking (total Sobol index of the mean rank shift, each weight varied by ±50%): ",
 		"Moving one weight at a time by ±50% (the others rescaled), ",
-		"Other ways of building the index (4 alternatives to the configured minmax/arithmetic/all",
-		"1 other combination was not scored",
+		"Other normalisations and aggregations (4 alternatives to the configured minmax/arithmetic/all",
+		"Not scored: zscore/geometric/all, because z-scores can be negative, so they cannot enter a geometric aggregation.",
 		"Agreement with the configured ranking over the samples: Spearman's rho averages",
 	} {
 		if !strings.Contains(text, want) {
