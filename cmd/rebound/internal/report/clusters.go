@@ -219,7 +219,8 @@ func WriteClusterPCA(w io.Writer, c *pipeline.ClusterResult) error {
 	return cw.Error()
 }
 
-// stabilityWord reads a mean Jaccard similarity as Hennig (2007) suggests.
+// stabilityWord reads a mean Jaccard similarity as Hennig (2007) does:
+// 0.75 or more stable, below 0.6 doubtful, uncertain between.
 func stabilityWord(j float64) string {
 	switch {
 	case math.IsNaN(j):
@@ -227,10 +228,13 @@ func stabilityWord(j float64) string {
 	case j >= 0.75:
 		return "stable"
 	case j >= 0.6:
-		return "fairly stable"
+		return "uncertain"
 	}
 	return "doubtful"
 }
+
+// printLimit is the most stations left out that PrintClusters lists.
+const printLimit = 20
 
 // PrintClusters prints a summary of the clustering: what was clustered,
 // the k chosen and why, the agreement between methods, each cluster's
@@ -278,20 +282,25 @@ func PrintClusters(w io.Writer, c *pipeline.ClusterResult) {
 	for _, m := range c.Medoids {
 		medW = max(medW, utf8.RuneCountInString(m))
 	}
-	fmt.Fprintf(w, "%7s  %8s  %-*s  %-9s  %s\n", "cluster", "stations", medW, "medoid", "stability", "description")
+	fmt.Fprintf(w, "%7s  %8s  %-*s  %-14s  %s\n", "cluster", "stations", medW, "medoid", "stability", "description")
 	for k, p := range c.Profiles {
 		stab := ""
 		if c.Stability != nil {
-			stab = Round(c.Stability.Jaccard[k], 2)
+			j := c.Stability.Jaccard[k]
+			stab = Round(j, 2) + " " + stabilityWord(j)
 		}
-		fmt.Fprintf(w, "%7d  %8d  %-*s  %-9s  %s\n", k+1, p.Size, medW, c.Medoids[k], stab, p.Description)
+		fmt.Fprintf(w, "%7d  %8d  %-*s  %-14s  %s\n", k+1, p.Size, medW, c.Medoids[k], stab, p.Description)
 	}
 	if c.Stability != nil {
 		fmt.Fprintf(w, "Stability: mean Jaccard similarity to the best-matching cluster over %d bootstrap replicates\n(Hennig 2007): 0.75 or more is stable, below 0.6 doubtful.\n", c.Replicates)
 	}
 	if len(c.Excluded) > 0 {
 		fmt.Fprintf(w, "\nLeft out (%d):\n", len(c.Excluded))
-		for _, e := range c.Excluded {
+		for i, e := range c.Excluded {
+			if i == printLimit {
+				fmt.Fprintf(w, "  ... and %d more (clusters.csv lists every station left out, with the reason)\n", len(c.Excluded)-i)
+				break
+			}
 			fmt.Fprintf(w, "  %s: %s\n", e.Station, e.Reason)
 		}
 	}
