@@ -5,9 +5,13 @@ import (
 	"fmt"
 	"io"
 	"path/filepath"
+	"slices"
 
+	"rebound/cmd/rebound/internal/geojson"
+	"rebound/cmd/rebound/internal/memo"
 	"rebound/cmd/rebound/internal/pipeline"
 	"rebound/cmd/rebound/internal/report"
+	"rebound/cmd/rebound/internal/workbook"
 )
 
 // output is one rendered output file; Name may contain a folder
@@ -28,6 +32,7 @@ var renderers = []renderer{
 	renderDerived,
 	renderClusters,
 	renderSensitivity,
+	renderDeliverables,
 }
 
 func renderTables(r *pipeline.Run, _ *report.Manifest) ([]output, error) {
@@ -67,6 +72,33 @@ func renderDerived(r *pipeline.Run, _ *report.Manifest) ([]output, error) {
 		outs = append(outs, output{"criteria.csv", buf.Bytes()})
 	}
 	return outs, nil
+}
+
+// renderDeliverables writes what planners open: the workbook, the memo
+// with its figures, and the map layer, all from the same results.
+func renderDeliverables(r *pipeline.Run, man *report.Manifest) ([]output, error) {
+	book, err := workbook.Render(r, man)
+	if err != nil {
+		return nil, fmt.Errorf("rebound.xlsx: %w", err)
+	}
+	text, figures, err := memo.Render(r, man)
+	if err != nil {
+		return nil, fmt.Errorf("memo.md: %w", err)
+	}
+	layer, err := geojson.Render(r)
+	if err != nil {
+		return nil, fmt.Errorf("stations.geojson: %w", err)
+	}
+	outs := []output{{"rebound.xlsx", book}, {"memo.md", text}}
+	names := make([]string, 0, len(figures))
+	for name := range figures {
+		names = append(names, name)
+	}
+	slices.Sort(names)
+	for _, name := range names {
+		outs = append(outs, output{name, figures[name]})
+	}
+	return append(outs, output{"stations.geojson", layer}), nil
 }
 
 // writeOutputs renders every output in memory, then writes each file
