@@ -26,7 +26,7 @@ func Profiles(features []string, profiles []Profile) ([]byte, error) {
 	n := len(features)
 	labels := make([]string, n)
 	for j, f := range features {
-		labels[j] = clip(f, 30)
+		labels[j] = clip(f, 36)
 	}
 	p := newPlot("Cluster profiles", "cluster mean (standard deviations from the mean of all stations)", "")
 	nominalY(p, labels)
@@ -60,15 +60,13 @@ func Profiles(features []string, profiles []Profile) ([]byte, error) {
 	var names []string
 	var thumbs []plot.Thumbnailer
 	for c, pr := range profiles {
-		names = append(names, clip(pr.Label, 60))
+		names = append(names, clip(pr.Label, 100))
 		thumbs = append(thumbs, swatch{Category(c)})
 	}
 	cols := 1
-	if k > 4 {
-		cols = 2
-	}
 	legH := legendHeight(len(names), cols)
-	h := vg.Points(float64(n)*(10+6*float64(k)) + 80)
+	// Rows of 8 + 4k points, but no taller than a printed page allows.
+	h := min(vg.Points(float64(n)*(8+4*float64(k))+80), 8.2*vg.Inch-legendHeight(len(names), cols))
 	return png(h+legH, func(c draw.Canvas) {
 		c = pad(c)
 		strip := c

@@ -81,8 +81,8 @@ func Scores(stations []Score, interval string) ([]byte, error) {
 		}
 		left.Add(lab)
 		left.X.Max = 108 // room for the labels
-		left.X.Tick.Marker = plot.ConstantTicks{{Value: 0, Label: "0"}, {Value: 20, Label: "20"}, {Value: 40, Label: "40"},
-			{Value: 60, Label: "60"}, {Value: 80, Label: "80"}, {Value: 100, Label: "100"}}
+		left.X.Tick.Marker = plot.ConstantTicks{{Value: 0, Label: "0"}, {Value: 25}, {Value: 50, Label: "50"},
+			{Value: 75}, {Value: 100, Label: "100"}}
 	}
 
 	height := vg.Points(float64(n)*13 + 90)
