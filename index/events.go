@@ -1,6 +1,8 @@
 package index
 
 import (
+	"bufio"
+	"bytes"
 	"encoding/csv"
 	"errors"
 	"fmt"
@@ -62,15 +64,25 @@ func LoadEvents(path string) (*EventTable, []error) {
 // 1/0); antecedent_dryness may be blank (unknown). Every problem is
 // returned (up to a limit), each at its line and column; the table is
 // usable only when there are none. name labels error positions.
+//
+// Quoting follows RFC 4180 as encoding/csv reads it, and so do the
+// positions of errors: lines and byte columns, 1-based.
 func ReadEvents(r io.Reader, name string) (*EventTable, []error) {
-	cr := csv.NewReader(tabular.StripBOM(r))
-	cr.ReuseRecord = true
-	cr.FieldsPerRecord = -1
+	sizeHint := int64(-1)
+	switch f := r.(type) {
+	case interface{ Stat() (os.FileInfo, error) }:
+		if fi, err := f.Stat(); err == nil && fi.Mode().IsRegular() {
+			sizeHint = fi.Size()
+		}
+	case interface{ Size() int64 }: // strings.Reader, bytes.Reader
+		sizeHint = f.Size()
+	}
+	rs := newRecords(tabular.StripBOM(r))
 	var errs tabular.List
 	fail := func(line, col int, column string, err error) {
 		errs.Add(&tabular.ParseError{File: name, Line: line, Col: col, Column: column, Err: err})
 	}
-	rec, err := cr.Read()
+	err := rs.next()
 	if err == io.EOF {
 		fail(0, 0, "", tabular.ErrEmpty)
 		return nil, errs.Errors()
@@ -78,7 +90,11 @@ func ReadEvents(r io.Reader, name string) (*EventTable, []error) {
 	if err != nil {
 		return nil, []error{csvError(name, err)}
 	}
-	h, err := tabular.NewHeader(rec)
+	names := make([]string, len(rs.fields))
+	for i, f := range rs.fields {
+		names[i] = string(f)
+	}
+	h, err := tabular.NewHeader(names)
 	if err != nil {
 		fail(1, 0, "", err)
 		return nil, errs.Errors()
@@ -98,18 +114,9 @@ func ReadEvents(r io.Reader, name string) (*EventTable, []error) {
 			t.Extra = append(t.Extra, n)
 		}
 	}
-	in := interner{}
-	sizeHint := int64(-1)
-	switch f := r.(type) {
-	case interface{ Stat() (os.FileInfo, error) }:
-		if fi, err := f.Stat(); err == nil && fi.Mode().IsRegular() {
-			sizeHint = fi.Size()
-		}
-	case interface{ Size() int64 }: // strings.Reader, bytes.Reader
-		sizeHint = f.Size()
-	}
+	p := rowParser{rs: rs, idx: idx, name: name, errs: &errs, in: interner{m: map[string]string{}}}
 	for {
-		rec, err := cr.Read()
+		err := rs.next()
 		if err == io.EOF {
 			break
 		}
@@ -117,45 +124,19 @@ func ReadEvents(r io.Reader, name string) (*EventTable, []error) {
 			errs.Add(csvError(name, err))
 			return nil, errs.Errors()
 		}
-		line, _ := cr.FieldPos(0)
-		if len(rec) != len(h.Names) {
-			if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
+		if len(rs.fields) != len(h.Names) {
+			if len(rs.fields) == 1 && len(bytes.TrimSpace(rs.fields[0])) == 0 {
 				continue // a blank line
 			}
-			fail(line, 0, "", fmt.Errorf("want %d fields like the header, got %d", len(h.Names), len(rec)))
+			fail(rs.recLine, 0, "", fmt.Errorf("want %d fields like the header, got %d", len(h.Names), len(rs.fields)))
 			continue
 		}
-		bad := func(k int, err error) {
-			_, col := cr.FieldPos(idx[k])
-			fail(line, col, EventColumns[k], err)
-		}
-		field := func(k int) string { return strings.TrimSpace(rec[idx[k]]) }
-		e := Event{Line: line}
-		for k, dst := range []*string{&e.Station, &e.ID, &e.Kind, &e.Variable} {
-			if *dst = in.get(field(k)); *dst == "" {
-				bad(k, errors.New("want a value, got a blank cell"))
-			}
-		}
-		var startOK, endOK bool
-		e.Start, startOK = date(field(4), func(err error) { bad(4, err) })
-		e.End, endOK = date(field(5), func(err error) { bad(5, err) })
-		if startOK && endOK && e.End < e.Start {
-			bad(5, fmt.Errorf("end %s is before start %s", e.End, e.Start))
-		}
-		e.PeakDeparture = number(field(6), false, func(err error) { bad(6, err) })
-		e.RecoveryDays = number(field(7), true, func(err error) { bad(7, err) })
-		if e.RecoveryDays < 0 {
-			bad(7, fmt.Errorf("want days >= 0, got %q", field(7)))
-		}
-		if e.Recovered, err = tabular.Bool(field(8)); err != nil {
-			bad(8, err)
-		}
-		e.Dryness = number(field(9), false, func(err error) { bad(9, err) })
+		e := p.event()
 		if len(t.Events) == 256 && sizeHint > 0 {
 			// Size the table once from the bytes per row seen so far: a
 			// million-row table grown by doubling spends most of its load
 			// time copying.
-			perRow := float64(cr.InputOffset()) / float64(len(t.Events)+1)
+			perRow := float64(rs.off) / float64(len(t.Events)+1)
 			t.Events = slices.Grow(t.Events, int(float64(sizeHint)/perRow*1.05))
 		}
 		t.Events = append(t.Events, e)
@@ -169,6 +150,153 @@ func ReadEvents(r io.Reader, name string) (*EventTable, []error) {
 	return t, nil
 }
 
+// rowParser turns the current record of rs into an Event, reporting each
+// bad cell at its line and column.
+type rowParser struct {
+	rs   *records
+	idx  []int // the record index of each of EventColumns
+	name string
+	errs *tabular.List
+	in   interner
+}
+
+// field returns column k of EventColumns, trimmed of surrounding spaces.
+func (p *rowParser) field(k int) []byte { return bytes.TrimSpace(p.rs.fields[p.idx[k]]) }
+
+// bad reports err in column k of EventColumns.
+func (p *rowParser) bad(k int, err error) {
+	p.errs.Add(&tabular.ParseError{File: p.name, Line: p.rs.recLine, Col: p.rs.cols[p.idx[k]], Column: EventColumns[k], Err: err})
+}
+
+func (p *rowParser) event() Event {
+	e := Event{Line: p.rs.recLine}
+	for k, dst := range [...]*string{&e.Station, &e.ID, &e.Kind, &e.Variable} {
+		if *dst = p.in.get(k, p.field(k)); *dst == "" {
+			p.bad(k, errors.New("want a value, got a blank cell"))
+		}
+	}
+	var startOK, endOK bool
+	e.Start, startOK = p.date(4)
+	e.End, endOK = p.date(5)
+	if startOK && endOK && e.End < e.Start {
+		p.bad(5, fmt.Errorf("end %s is before start %s", e.End, e.Start))
+	}
+	e.PeakDeparture = p.number(6, false)
+	e.RecoveryDays = p.number(7, true)
+	if e.RecoveryDays < 0 {
+		p.bad(7, fmt.Errorf("want days >= 0, got %q", p.field(7)))
+	}
+	var err error
+	if e.Recovered, err = parseBool(p.field(8)); err != nil {
+		p.bad(8, err)
+	}
+	e.Dryness = p.number(9, false)
+	return e
+}
+
+func (p *rowParser) date(k int) (calendar.Date, bool) {
+	s := p.field(k)
+	d, err := calendar.ParseBytes(s)
+	if err != nil {
+		p.bad(k, fmt.Errorf("%w, got %q", err, s))
+		return 0, false
+	}
+	return d, true
+}
+
+// number parses column k as tabular.Float does; a blank cell is NaN, and
+// an error when required.
+func (p *rowParser) number(k int, required bool) float64 {
+	s := p.field(k)
+	if v, ok := parseDecimal(s); ok {
+		return v
+	}
+	v, ok, err := tabular.Float(string(s))
+	switch {
+	case err != nil:
+		p.bad(k, err)
+	case !ok && required:
+		p.bad(k, errors.New("want a number, got a blank cell"))
+	}
+	return v
+}
+
+// parseDecimal parses the common plain decimals, an optional sign, digits
+// and an optional fraction (-1.25, 14, 0.375), without allocating. The
+// digits without the point must make an integer below 2⁵³ and the
+// fraction have at most 22 digits: both the integer and the power of ten
+// are then exact, and one division rounds correctly, which is what
+// strconv.ParseFloat returns (Clinger 1990, the exact case). ok is false
+// for anything else, which the caller parses in full.
+func parseDecimal(s []byte) (v float64, ok bool) {
+	neg := false
+	if len(s) > 0 && (s[0] == '-' || s[0] == '+') {
+		neg = s[0] == '-'
+		s = s[1:]
+	}
+	var m uint64
+	digits, frac := 0, -1
+	for i, c := range s {
+		switch {
+		case c >= '0' && c <= '9':
+			m = m*10 + uint64(c-'0')
+			digits++
+			if digits > 19 {
+				return 0, false
+			}
+		case c == '.' && frac < 0 && i > 0:
+			frac = i + 1
+		default:
+			return 0, false
+		}
+	}
+	scale := 0
+	if frac >= 0 {
+		scale = len(s) - frac
+		if scale == 0 {
+			return 0, false // "1." is left to strconv
+		}
+	}
+	if digits == 0 || m >= 1<<53 || scale > 22 {
+		return 0, false
+	}
+	v = float64(m)
+	if scale > 0 {
+		v /= pow10[scale]
+	}
+	if neg {
+		v = -v
+	}
+	return v, true
+}
+
+// pow10 holds the powers of ten that are exact in a float64.
+var pow10 = [...]float64{1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
+	1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22}
+
+// parseBool is tabular.Bool for bytes; it allocates only for a cell that
+// is not plain ASCII true/false/1/0 (in any case).
+func parseBool(s []byte) (bool, error) {
+	switch len(s) {
+	case 1:
+		switch s[0] {
+		case '1':
+			return true, nil
+		case '0':
+			return false, nil
+		}
+	case 4:
+		if s[0]|0x20 == 't' && s[1]|0x20 == 'r' && s[2]|0x20 == 'u' && s[3]|0x20 == 'e' {
+			return true, nil
+		}
+	case 5:
+		if s[0]|0x20 == 'f' && s[1]|0x20 == 'a' && s[2]|0x20 == 'l' && s[3]|0x20 == 's' && s[4]|0x20 == 'e' {
+			return false, nil
+		}
+	}
+	return tabular.Bool(string(s))
+}
+
 func csvError(name string, err error) error {
 	var pe *csv.ParseError
 	if errors.As(err, &pe) {
@@ -177,35 +305,183 @@ func csvError(name string, err error) error {
 	return &tabular.ParseError{File: name, Err: err}
 }
 
-func date(s string, fail func(error)) (calendar.Date, bool) {
-	d, err := calendar.Parse(s)
-	if err != nil {
-		fail(fmt.Errorf("%w, got %q", err, s))
-		return 0, false
-	}
-	return d, true
+// interner shares the storage of repeated strings (station, kind and
+// variable names repeat on every row, event identifiers on the rows of
+// each variable). It remembers the last value of each column, which is
+// usually the next one too.
+type interner struct {
+	m    map[string]string
+	last [4]string
 }
 
-func number(s string, required bool, fail func(error)) float64 {
-	v, ok, err := tabular.Float(s)
-	switch {
-	case err != nil:
-		fail(err)
-	case !ok && required:
-		fail(errors.New("want a number, got a blank cell"))
+// get returns s as a string, the same storage for the same text.
+func (in *interner) get(col int, s []byte) string {
+	if string(s) == in.last[col] {
+		return in.last[col]
 	}
+	v, ok := in.m[string(s)]
+	if !ok {
+		v = string(s)
+		in.m[v] = v
+	}
+	in.last[col] = v
 	return v
 }
 
-// interner shares the storage of repeated strings (station, kind and
-// variable names repeat on every row).
-type interner map[string]string
+// records splits CSV input into records. A line without a double quote,
+// or whose quoted fields are plain (a quote at each end, none inside, on
+// one line), is split here without allocating: nearly every line of an
+// events table. Any other record is read by encoding/csv from the same
+// buffer, so the quoting rules, the errors and their positions are
+// encoding/csv's (RFC 4180; lines and byte columns from 1).
+type records struct {
+	br  *bufio.Reader
+	cr  *csv.Reader // made on the first record that needs it
+	eof bool        // br holds the rest of the input
 
-func (in interner) get(s string) string {
-	if v, ok := in[s]; ok {
-		return v
+	line int   // line number of the next line to read
+	off  int64 // bytes read up to the end of the current record
+
+	// The current record: its fields (valid until the next call of
+	// next), the byte column at which each starts, and the line of its
+	// first field.
+	fields  [][]byte
+	cols    []int
+	recLine int
+	scratch []byte // the fields of a record read by encoding/csv
+}
+
+func newRecords(r io.Reader) *records {
+	return &records{br: bufio.NewReaderSize(r, 64<<10), line: 1}
+}
+
+// next reads the next record that is not an empty line. It returns io.EOF
+// at the end of the input, a *csv.ParseError for bad quoting, and read
+// errors as they are.
+func (rs *records) next() error {
+	for {
+		buf, _ := rs.br.Peek(rs.br.Buffered())
+		i := bytes.IndexByte(buf, '\n')
+		n := i + 1 // the line's bytes, its end included
+		if i < 0 {
+			if !rs.eof {
+				if len(buf) == rs.br.Size() {
+					return rs.viaCSV() // a line longer than the buffer
+				}
+				switch _, err := rs.br.Peek(len(buf) + 1); err {
+				case nil:
+				case io.EOF:
+					rs.eof = true
+				default:
+					return err
+				}
+				continue
+			}
+			if len(buf) == 0 {
+				return io.EOF
+			}
+			i, n = len(buf), len(buf) // the last line has no line end
+		}
+		line := buf[:i]
+		if k := len(line) - 1; k >= 0 && line[k] == '\r' {
+			line = line[:k] // CRLF, or CR at the end of the input
+		}
+		if len(line) == 0 {
+			rs.br.Discard(n)
+			rs.line++
+			rs.off += int64(n)
+			continue
+		}
+		if !rs.split(line) {
+			return rs.viaCSV()
+		}
+		rs.recLine = rs.line
+		rs.line++
+		rs.off += int64(n)
+		rs.br.Discard(n) // the fields stay valid: only a read moves the buffer
+		return nil
 	}
-	s = strings.Clone(s)
-	in[s] = s
-	return s
+}
+
+// split splits line, without its line end, into fields at commas. A field
+// in double quotes with no quote inside is taken without its quotes. It
+// returns false, having split nothing, when the line needs encoding/csv:
+// a quote elsewhere, a doubled quote, or a quoted field that goes on to
+// the next line.
+func (rs *records) split(line []byte) bool {
+	rs.fields, rs.cols = rs.fields[:0], rs.cols[:0]
+	plain := bytes.IndexByte(line, '"') < 0
+	for i := 0; ; {
+		if !plain && i < len(line) && line[i] == '"' {
+			j := bytes.IndexByte(line[i+1:], '"')
+			if j < 0 {
+				return false
+			}
+			end := i + 1 + j // the closing quote
+			if end+1 < len(line) && line[end+1] != ',' {
+				return false
+			}
+			rs.fields = append(rs.fields, line[i+1:end])
+			rs.cols = append(rs.cols, i+1)
+			if end+1 == len(line) {
+				return true
+			}
+			i = end + 2
+			continue
+		}
+		f := line[i:]
+		j := bytes.IndexByte(f, ',')
+		if j >= 0 {
+			f = f[:j]
+		}
+		if !plain && bytes.IndexByte(f, '"') >= 0 {
+			return false
+		}
+		rs.fields = append(rs.fields, f)
+		rs.cols = append(rs.cols, i+1)
+		if j < 0 {
+			return true
+		}
+		i += j + 1
+	}
+}
+
+// viaCSV reads the next record with encoding/csv, which reads it from
+// rs.br, and renumbers its lines: encoding/csv counts only the lines it
+// has read itself.
+func (rs *records) viaCSV() error {
+	if rs.cr == nil {
+		rs.cr = csv.NewReader(rs.br) // rs.br is large enough to be used as it is
+		rs.cr.ReuseRecord = true
+		rs.cr.FieldsPerRecord = -1
+	}
+	before := rs.cr.InputOffset()
+	rec, err := rs.cr.Read()
+	rs.off += rs.cr.InputOffset() - before
+	if err != nil {
+		if pe, ok := err.(*csv.ParseError); ok {
+			shift := rs.line - pe.StartLine // the record starts on rs.line
+			return &csv.ParseError{StartLine: pe.StartLine + shift, Line: pe.Line + shift, Column: pe.Column, Err: pe.Err}
+		}
+		return err
+	}
+	first, _ := rs.cr.FieldPos(0)
+	shift := rs.line - first
+	rs.scratch = rs.scratch[:0]
+	rs.cols = rs.cols[:0]
+	for k, f := range rec {
+		rs.scratch = append(rs.scratch, f...)
+		_, col := rs.cr.FieldPos(k)
+		rs.cols = append(rs.cols, col)
+	}
+	rs.fields = rs.fields[:0]
+	at := 0
+	for _, f := range rec {
+		rs.fields = append(rs.fields, rs.scratch[at:at+len(f):at+len(f)])
+		at += len(f)
+	}
+	last, _ := rs.cr.FieldPos(len(rec) - 1)
+	rs.recLine = rs.line
+	rs.line = last + shift + strings.Count(rec[len(rec)-1], "\n") + 1
+	return nil
 }

@@ -109,30 +109,15 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 	// Events by station, with cross-table checks.
 	byStation := make([][]*Event, n)
 	if events != nil {
-		unknownVar := map[string]int{}
-		for k := range events.Events {
-			e := &events.Events[k]
-			at := func(column, format string, args ...any) {
-				errs.Add(&tabular.ParseError{File: events.File, Line: e.Line, Column: column, Err: fmt.Errorf(format, args...)})
-			}
-			idx, ok := attrs.Index(e.Station)
-			if !ok {
-				at("station", "station %q is not in the attribute table %s", e.Station, attrs.File)
-				continue
-			}
-			if cfg.Memory.Dryness == config.Fraction && !math.IsNaN(e.Dryness) && (e.Dryness < 0 || e.Dryness > 1) {
-				at("antecedent_dryness", "want a fraction in [0, 1] (memory.dryness = %q), got %g", cfg.Memory.Dryness, e.Dryness)
-			}
-			if _, ok := cfg.Variable(e.Variable); !ok {
-				unknownVar[e.Variable]++
-			}
-			byStation[idx] = append(byStation[idx], e)
-		}
+		unknownVar := groupEvents(byStation, events, attrs, cfg, &errs)
 		// Duplicate rows, station by station: sorting a few dozen events
-		// is far cheaper than one map over a million rows.
+		// is far cheaper than one map over a million rows. The order is
+		// total but for rows that agree on event, variable and line,
+		// whose reports are the same in any order.
+		var sorted []*Event
 		for i, evs := range byStation {
-			sorted := slices.Clone(evs)
-			slices.SortStableFunc(sorted, func(a, b *Event) int {
+			sorted = append(sorted[:0], evs...)
+			slices.SortFunc(sorted, func(a, b *Event) int {
 				return cmp.Or(strings.Compare(a.ID, b.ID), strings.Compare(a.Variable, b.Variable), a.Line-b.Line)
 			})
 			dup := false
@@ -175,9 +160,10 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 			attrCols[j], _ = attrs.Column(ind.Attribute)
 		}
 	}
+	var sc scratch
 	for i := range n {
 		evs := byStation[i]
-		raw.Events[i] = countDistinct(evs)
+		raw.Events[i] = sc.countDistinct(evs)
 		for j, ind := range cfg.Indicators {
 			var v float64
 			var note string
@@ -185,7 +171,7 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 			if ind.Measure == config.CriterionM {
 				v, note = criterionValue(ind, ser, raw.Stations[i])
 			} else {
-				v, note, fb = indicator(ind, evs, attrCols[j], i, recordYears, cfg)
+				v, note, fb = sc.indicator(ind, evs, attrCols[j], i, recordYears, cfg)
 			}
 			raw.Values[i][j], raw.Notes[i][j], raw.Fallback[i][j] = v, note, fb
 		}
@@ -193,14 +179,81 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 	return raw, nil
 }
 
+// groupEvents sets byStation[i] to the events of station i of attrs, in
+// file order, and returns the number of rows of each variable that has no
+// [[variable]] table. It reports events for unknown stations and dryness
+// outside its scale.
+func groupEvents(byStation [][]*Event, events *EventTable, attrs *attributes.Table, cfg *config.Config, errs *tabular.List) map[string]int {
+	unknownVar := map[string]int{}
+	at := make([]int32, len(events.Events)) // station index, −1 for none
+	start := make([]int, len(attrs.Stations)+1)
+	// Rows come grouped by station, and a handful of variables repeat:
+	// remember the last of each.
+	lastStation, lastIdx, lastOK := "", 0, false
+	lastVar, lastKnown := "", false
+	for k := range events.Events {
+		e := &events.Events[k]
+		at[k] = -1
+		if k == 0 || e.Station != lastStation {
+			lastStation = e.Station
+			lastIdx, lastOK = attrs.Index(e.Station)
+		}
+		if !lastOK {
+			errs.Add(&tabular.ParseError{File: events.File, Line: e.Line, Column: "station",
+				Err: fmt.Errorf("station %q is not in the attribute table %s", e.Station, attrs.File)})
+			continue
+		}
+		if cfg.Memory.Dryness == config.Fraction && !math.IsNaN(e.Dryness) && (e.Dryness < 0 || e.Dryness > 1) {
+			errs.Add(&tabular.ParseError{File: events.File, Line: e.Line, Column: "antecedent_dryness",
+				Err: fmt.Errorf("want a fraction in [0, 1] (memory.dryness = %q), got %g", cfg.Memory.Dryness, e.Dryness)})
+		}
+		if k == 0 || e.Variable != lastVar {
+			lastVar = e.Variable
+			_, lastKnown = cfg.Variable(e.Variable)
+		}
+		if !lastKnown {
+			unknownVar[e.Variable]++
+		}
+		at[k] = int32(lastIdx)
+		start[lastIdx+1]++
+	}
+	for i := range attrs.Stations {
+		start[i+1] += start[i]
+	}
+	// One array of pointers, cut into the stations' runs.
+	all := make([]*Event, start[len(attrs.Stations)])
+	next := slices.Clone(start)
+	for k, i := range at {
+		if i >= 0 {
+			all[next[i]] = &events.Events[k]
+			next[i]++
+		}
+	}
+	for i := range byStation {
+		if start[i] < start[i+1] {
+			byStation[i] = all[start[i]:start[i+1]:start[i+1]]
+		}
+	}
+	return unknownVar
+}
+
+// scratch holds buffers that the computation of one station's indicators
+// reuses for the next.
+type scratch struct {
+	ids  []string
+	sel  []*Event
+	a, b []float64
+	obs  []bool
+}
+
 // indicator computes indicator ind at station i from its events evs.
 // attrCol holds the indicator's attribute column for measure "attribute".
-func indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, recordYears []float64, cfg *config.Config) (v float64, note string, fallback bool) {
+func (sc *scratch) indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, recordYears []float64, cfg *config.Config) (v float64, note string, fallback bool) {
 	nan := math.NaN()
 	if ind.Measure == config.Attribute {
 		return transform(attrCol[i], ind.Transform)
 	}
-	sel := filter(evs, ind)
+	sel := sc.filter(evs, ind)
 	switch ind.Measure {
 	case config.Frequency:
 		years := nan
@@ -212,7 +265,7 @@ func indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, rec
 		if math.IsNaN(years) {
 			return nan, fmt.Sprintf("no length of record (attribute %q blank and inputs.record_years unset)", cfg.Inputs.RecordYearsColumn), false
 		}
-		return float64(countDistinct(sel)) / years, "", false
+		return float64(sc.countDistinct(sel)) / years, "", false
 	}
 	if len(sel) == 0 {
 		return nan, "no " + describeFilter(ind) + " events", false
@@ -220,19 +273,21 @@ func indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, rec
 	switch ind.Measure {
 	case config.Magnitude:
 		sign := harmfulSign(cfg, ind.Variables[0])
-		var mags []float64
+		mags := sc.a[:0]
 		for _, e := range sel {
 			if !math.IsNaN(e.PeakDeparture) {
 				mags = append(mags, sign*e.PeakDeparture)
 			}
 		}
+		sc.a = mags
 		if len(mags) == 0 {
 			return nan, "no " + describeFilter(ind) + " events with a known peak departure", false
 		}
 		return robust.Median(mags), "", false
 	case config.Recovery:
-		times := make([]float64, len(sel))
-		obs := make([]bool, len(sel))
+		times := slices.Grow(sc.a[:0], len(sel))[:len(sel)]
+		obs := slices.Grow(sc.obs[:0], len(sel))[:len(sel)]
+		sc.a, sc.obs = times, obs
 		for k, e := range sel {
 			times[k], obs[k] = e.RecoveryDays, e.Recovered
 		}
@@ -249,13 +304,14 @@ func indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, rec
 		return c.RMST(c.MaxTime), fmt.Sprintf("Kaplan–Meier median undefined (%d of %d events not recovered); restricted mean to %g days used", censored, len(sel), c.MaxTime), true
 	case config.MemoryM:
 		sign := harmfulSign(cfg, ind.Variables[0])
-		var x, y []float64
+		x, y := sc.a[:0], sc.b[:0]
 		for _, e := range sel {
 			if !math.IsNaN(e.Dryness) && !math.IsNaN(e.PeakDeparture) {
 				x = append(x, e.Dryness)
 				y = append(y, sign*e.PeakDeparture)
 			}
 		}
+		sc.a, sc.b = x, y
 		if len(x) < cfg.Memory.MinEvents {
 			return nan, fmt.Sprintf("%d events with known antecedent dryness and peak departure, fewer than memory.min_events = %d", len(x), cfg.Memory.MinEvents), false
 		}
@@ -324,17 +380,20 @@ func harmfulSign(cfg *config.Config, variable string) float64 {
 	return v.Harmful.Sign()
 }
 
-func filter(evs []*Event, ind config.Indicator) []*Event {
+// filter returns the events of evs that ind takes, in sc.sel unless it
+// takes them all.
+func (sc *scratch) filter(evs []*Event, ind config.Indicator) []*Event {
 	if len(ind.Kinds) == 0 && len(ind.Variables) == 0 {
 		return evs
 	}
-	var out []*Event
+	out := sc.sel[:0]
 	for _, e := range evs {
 		if (len(ind.Kinds) == 0 || slices.Contains(ind.Kinds, e.Kind)) &&
 			(len(ind.Variables) == 0 || slices.Contains(ind.Variables, e.Variable)) {
 			out = append(out, e)
 		}
 	}
+	sc.sel = out
 	return out
 }
 
@@ -352,12 +411,17 @@ func describeFilter(ind config.Indicator) string {
 	return strings.Join(parts, " ")
 }
 
-// countDistinct counts distinct event identifiers.
-func countDistinct(evs []*Event) int {
-	ids := make([]string, len(evs))
-	for k, e := range evs {
-		ids[k] = e.ID
+// countDistinct counts distinct event identifiers. The rows of an event's
+// variables usually follow one another, so repeats of the row before are
+// dropped before sorting.
+func (sc *scratch) countDistinct(evs []*Event) int {
+	ids := sc.ids[:0]
+	for _, e := range evs {
+		if len(ids) == 0 || ids[len(ids)-1] != e.ID {
+			ids = append(ids, e.ID)
+		}
 	}
+	sc.ids = ids
 	slices.Sort(ids)
 	return len(slices.Compact(ids))
 }
