@@ -256,7 +256,7 @@ func (r *Run) cluster() error {
 	if cl == nil {
 		return nil
 	}
-	t, units, source, err := r.featureTable()
+	t, units, source, warns, err := r.featureTable()
 	if err != nil {
 		return err
 	}
@@ -265,6 +265,7 @@ func (r *Run) cluster() error {
 		return fmt.Errorf("clustering: %w", err)
 	}
 	res.Source = source
+	res.Warnings = append(warns, res.Warnings...)
 	r.Clusters = res
 	for _, e := range res.Excluded {
 		r.Warnings = append(r.Warnings, &index.Warning{Station: e.Station, Msg: "left out of clustering: " + e.Reason})
@@ -280,29 +281,29 @@ func (r *Run) cluster() error {
 // table when there is one; its stations without features are excluded with
 // the reason, and table rows of stations it lacks are skipped with a
 // warning.
-func (r *Run) featureTable() (t *features.Table, units []string, source string, err error) {
+func (r *Run) featureTable() (t *features.Table, units []string, source string, warns []error, err error) {
 	cfg := r.Config
 	cl := cfg.Clustering
 	if cl.FeaturesFile != "" {
 		path := cfg.Path(cl.FeaturesFile)
 		f, err := os.Open(path)
 		if err != nil {
-			return nil, nil, "", err
+			return nil, nil, "", nil, err
 		}
 		defer f.Close()
 		ft, err := features.ReadTable(f, path)
 		if err != nil {
-			return nil, nil, "", err
+			return nil, nil, "", nil, err
 		}
 		in, err := digest("features", path)
 		if err != nil {
-			return nil, nil, "", err
+			return nil, nil, "", nil, err
 		}
 		in.Rows = len(ft.Stations)
 		r.Inputs = append(r.Inputs, in)
 		units = make([]string, len(ft.Names))
 		if r.Attrs == nil {
-			return ft, units, path, nil
+			return ft, units, path, nil, nil
 		}
 		t = &features.Table{Names: ft.Names}
 		row := map[string]int{}
@@ -322,18 +323,18 @@ func (r *Run) featureTable() (t *features.Table, units []string, source string, 
 		}
 		for _, id := range ft.Stations {
 			if !known[id] {
-				r.Warnings = append(r.Warnings, &index.Warning{Station: id, Msg: "in the feature table but not in the attribute table; skipped"})
+				warns = append(warns, &index.Warning{Station: id, Msg: "in the feature table but not in the attribute table; skipped"})
 			}
 		}
-		return t, units, path, nil
+		return t, units, path, warns, nil
 	}
 	if !cfg.HasSeries() {
-		return nil, nil, "", &config.Error{File: cfg.File, Key: "clustering",
+		return nil, nil, "", nil, &config.Error{File: cfg.File, Key: "clustering",
 			Msg: "clustering needs daily series (inputs.series or inputs.wide) or a feature table (clustering.features_file)"}
 	}
 	ex, err := r.extractor()
 	if err != nil {
-		return nil, nil, "", &config.Error{File: cfg.File, Key: "clustering.features", Msg: err.Error()}
+		return nil, nil, "", nil, &config.Error{File: cfg.File, Key: "clustering.features", Msg: err.Error()}
 	}
 	t = &features.Table{Names: ex.Names()}
 	have := map[string]*StationSeries{}
@@ -352,7 +353,7 @@ func (r *Run) featureTable() (t *features.Table, units []string, source string, 
 			t.Data = append(t.Data, ss.Features...)
 		}
 	}
-	return t, featureUnits(cfg, t.Names), "series", nil
+	return t, featureUnits(cfg, t.Names), "series", nil, nil
 }
 
 // featureUnits returns the units of the named features of the configured

@@ -478,3 +478,48 @@ func TestFeatureWords(t *testing.T) {
 		}
 	}
 }
+
+// A feature table named in the configuration is matched to the attribute
+// table: its stations missing there are skipped with a warning, and
+// attribute stations missing from it are left out with the reason.
+func TestClusterFeaturesFile(t *testing.T) {
+	dir := writeDir(t, map[string]string{
+		"rebound.toml": `
+[inputs]
+attributes = "stations.csv"
+[[indicator]]
+name = "forest"
+measure = "attribute"
+attribute = "forest_pct"
+better = "higher"
+weight = 1
+[clustering]
+features_file = "f.csv"
+bootstrap = 0
+`,
+		"stations.csv": "station,name,latitude,longitude,forest_pct\nA,a,46,-38,1\nB,b,46,-38,2\nC,c,46,-38,3\nD,d,46,-38,4\nE,e,46,-38,5\n",
+		"f.csv":        "station,x,y\nE,5,1\nA,0,0\nB,0.1,0\nZ,9,9\nC,5,1.2\nD,NA,1\n",
+	})
+	r := mustLoad(t, filepath.Join(dir, "rebound.toml"), Options{})
+	c := r.Clusters
+	if !slices.Equal(c.Stations, []string{"A", "B", "C", "E"}) || c.Source != filepath.Join(dir, "f.csv") {
+		t.Errorf("clustered %v from %s", c.Stations, c.Source)
+	}
+	want := []features.Exclusion{{Station: "D", Reason: "missing: x"}}
+	if !slices.Equal(c.Excluded, want) {
+		t.Errorf("left out %v", c.Excluded)
+	}
+	if len(c.Warnings) == 0 || c.Warnings[0].Error() != "station Z: in the feature table but not in the attribute table; skipped" {
+		t.Errorf("warnings %v", c.Warnings)
+	}
+	if c.K != 2 || !slices.Equal(c.Used().Labels, []int{0, 0, 1, 1}) {
+		t.Errorf("k = %d, labels %v", c.K, c.Used().Labels)
+	}
+	roles := ""
+	for _, in := range r.Inputs {
+		roles += in.Role + " "
+	}
+	if !strings.Contains(roles, "features") {
+		t.Errorf("inputs %q lack the feature table", roles)
+	}
+}
