@@ -33,6 +33,8 @@ const (
 	fmtGen    = "General"
 	fmtDate   = "yyyy-mm-dd"
 	fmtWeight = "0.000"
+	// fmtFeature shows up to three decimals, for values of any size.
+	fmtFeature = "0.0##"
 )
 
 // book wraps an excelize file with the styles the sheets use.
@@ -70,7 +72,7 @@ func newBook() (*book, error) {
 	if b.text, err = b.f.NewStyle(&excelize.Style{NumFmt: 49, Alignment: &excelize.Alignment{Vertical: "top", Indent: 1}}); err != nil { // 49 = "@", text
 		return nil, err
 	}
-	for _, nf := range []string{fmtInt, fmtScore, fmt2, fmt3, fmt4, fmtDate, fmtGen} {
+	for _, nf := range []string{fmtInt, fmtScore, fmt2, fmt3, fmt4, fmtDate, fmtGen, fmtFeature} {
 		f := nf
 		id, err := b.f.NewStyle(&excelize.Style{CustomNumFmt: &f, Alignment: &excelize.Alignment{Vertical: "top"}})
 		if err != nil {

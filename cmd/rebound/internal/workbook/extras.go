@@ -15,7 +15,7 @@ func (w *writer) clusters() {
 	r, c := w.r, w.e.Clusters
 	cols := []column{{"Station", 11, fmtText}, {"Name", 30, fmtText}, {"Cluster", 8, fmtInt}, {"Rank", 7, fmtInt}}
 	for _, f := range c.Features {
-		cols = append(cols, column{f, max(10, min(24, float64(len(f))*0.9)), fmtGen})
+		cols = append(cols, column{f, max(10, min(24, float64(len(f))*0.9)), fmtFeature})
 	}
 	cols = append(cols, column{"Left out because", 30, fmtText}, column{"Cluster label", 11, fmtText})
 	// Rows by cluster, then station order, so each cluster is one block

@@ -164,8 +164,21 @@ func (w *writer) method() {
 			fmt.Sprintf("k = %d; features: %s; mean silhouette width %.3f", c.K, strings.Join(c.Features, ", "), c.Silhouette))
 	}
 	w.table(s, cols, rows)
-	for i := range rows {
+	for i, row := range rows {
 		w.style(s, cell(1, i+2), cell(3, i+2), w.wrap)
+		// Spreadsheets do not always grow a row to its wrapped text:
+		// set the height from the longest cell.
+		lines := 1
+		for j, v := range row {
+			text, _ := v.(string)
+			n := 0
+			for _, line := range strings.Split(text, "\n") {
+				per := max(1, int(cols[j].Width*1.1))
+				n += max(1, (len([]rune(line))+per-1)/per)
+			}
+			lines = max(lines, n)
+		}
+		w.set(w.f.SetRowHeight(s, i+2, float64(15*lines)))
 	}
 }
 
