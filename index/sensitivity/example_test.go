@@ -3,6 +3,7 @@ package sensitivity_test
 import (
 	"fmt"
 	"log"
+	"math"
 
 	"rebound/index/rankstat"
 	"rebound/index/sensitivity"
@@ -88,4 +89,20 @@ func ExampleSobol() {
 	// Output:
 	// first order [0.65 0.24 0.11]
 	// total       [0.65 0.23 0.11]
+}
+
+func ExampleModel_Composites() {
+	// Weights in any scale: the model scales them to sum to 1. B's
+	// recovery time is missing, so its other two weights share the whole:
+	// (0.5·1 + 0.2·0.875)/0.7 = 0.964 (by hand).
+	v := append([]float64(nil), values...)
+	v[4] = math.NaN()
+	m := sensitivity.Model{Values: v, Weights: []float64{5, 3, 2}}
+	c, err := m.Composites()
+	if err != nil {
+		log.Fatal(err)
+	}
+	fmt.Printf("composites %.3f, base ranks %v\n", c, rankstat.Ranks(nil, c))
+	// Output:
+	// composites [0.944 0.964 0.686 0.046], base ranks [2 1 3 4]
 }
