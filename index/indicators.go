@@ -283,7 +283,7 @@ func (sc *scratch) indicator(ind config.Indicator, evs []*Event, attrCol []float
 		if len(mags) == 0 {
 			return nan, "no " + describeFilter(ind) + " events with a known peak departure", false
 		}
-		return robust.Median(mags), "", false
+		return robust.SelectQuantile(mags, 0.5), "", false // the median
 	case config.Recovery:
 		times := slices.Grow(sc.a[:0], len(sel))[:len(sel)]
 		obs := slices.Grow(sc.obs[:0], len(sel))[:len(sel)]

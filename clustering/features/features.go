@@ -8,6 +8,7 @@ import (
 	"strings"
 	"sync"
 
+	"rebound/index/robust"
 	"rebound/index/series"
 )
 
@@ -315,8 +316,8 @@ type varCalc struct {
 	harm           Harmonic
 	harmOK         bool
 	anom           []float64
-	sorted         []float64 // present values, partially ordered by selection
-	pivots         []int     // indices k of sorted already in place (see quantile)
+	selDone        bool
+	sel            robust.Selection // over the present values (see quantile)
 }
 
 func (c *calc) v(name string) *varCalc {
@@ -365,65 +366,20 @@ func (c *calc) anomalies(vc *varCalc) []float64 {
 	return vc.anom
 }
 
-// quantile returns the p-quantile of the variable's values. Each selection
-// leaves sorted[k] in its sorted place with no larger value before it and
-// no smaller after, so later selections search only between the nearest
-// such places.
+// quantile returns the p-quantile of the variable's values, by selection
+// on one copy of them that each quantile leaves more ordered for the next.
 func (c *calc) quantile(vc *varCalc, p float64) float64 {
-	if vc.sorted == nil {
-		vc.sorted = c.buf(len(vc.x))[:0]
+	if !vc.selDone {
+		vc.selDone = true
+		x := c.buf(len(vc.x))[:0]
 		for _, v := range vc.x {
 			if !math.IsNaN(v) {
-				vc.sorted = append(vc.sorted, v)
+				x = append(x, v)
 			}
 		}
-		vc.pivots = vc.pivots[:0]
+		vc.sel.Reset(x)
 	}
-	x := vc.sorted
-	n := len(x)
-	if n == 0 {
-		return math.NaN()
-	}
-	h := float64(n-1) * p
-	k := max(0, min(int(math.Floor(h)), n-1))
-	a := vc.selectAt(k)
-	if k == n-1 || h == float64(k) {
-		return a
-	}
-	// The next order statistic is the smallest value between k and the
-	// next value in place.
-	next := n
-	for _, p := range vc.pivots {
-		if p > k {
-			next = min(next, p)
-		}
-	}
-	b := math.Inf(1)
-	if next < n {
-		b = x[next]
-	}
-	for _, v := range x[k+1 : next] {
-		b = min(b, v)
-	}
-	return a + (h-float64(k))*(b-a)
-}
-
-// selectAt puts the k-th smallest value in place and returns it.
-func (vc *varCalc) selectAt(k int) float64 {
-	lo, hi := 0, len(vc.sorted)
-	for _, p := range vc.pivots {
-		switch {
-		case p == k:
-			return vc.sorted[k]
-		case p < k:
-			lo = max(lo, p+1)
-		default:
-			hi = min(hi, p)
-		}
-	}
-	v := selectKth(vc.sorted[lo:hi], k-lo)
-	vc.pivots = append(vc.pivots, k)
-	return v
+	return vc.sel.Quantile(p)
 }
 
 func (c *calc) feature(f feature) float64 {

@@ -6,6 +6,7 @@ import (
 	"sync"
 
 	"rebound/index/calendar"
+	"rebound/index/robust"
 )
 
 // Moments returns the mean, the sample standard deviation (ddof = 1) and
@@ -133,7 +134,8 @@ func Flashiness(q []float64) float64 {
 
 // Quantile returns the p-quantile (0 <= p <= 1) of the values of x that are
 // not NaN by linear interpolation between order statistics (Hyndman & Fan
-// 1996 type 7, numpy's default): with the n values sorted, h = (n−1)p and
+// 1996 type 7, numpy's default, with numpy's arithmetic; see
+// robust.Quantile): with the n values sorted, h = (n−1)p and
 // q = x[⌊h⌋] + (h − ⌊h⌋)(x[⌊h⌋+1] − x[⌊h⌋]). NaN when x has no value. x is
 // not changed.
 func Quantile(p float64, x []float64) float64 {
@@ -143,78 +145,7 @@ func Quantile(p float64, x []float64) float64 {
 			buf = append(buf, v)
 		}
 	}
-	return quantileSelect(p, buf)
-}
-
-// quantileSelect is Quantile for values without NaN, which it reorders.
-// It selects the order statistics in linear expected time instead of
-// sorting.
-func quantileSelect(p float64, x []float64) float64 {
-	n := len(x)
-	if n == 0 || math.IsNaN(p) {
-		return math.NaN()
-	}
-	h := float64(n-1) * p
-	lo := int(math.Floor(h))
-	lo = max(0, min(lo, n-1))
-	a := selectKth(x, lo)
-	if lo == n-1 || h == float64(lo) {
-		return a
-	}
-	b := x[lo+1]
-	for _, v := range x[lo+2:] {
-		b = min(b, v)
-	}
-	return a + (h-float64(lo))*(b-a)
-}
-
-// selectKth reorders x so that x[k] is its k-th smallest value, the values
-// before it no larger and those after it no smaller, and returns x[k]
-// (Hoare's selection with a median-of-three pivot; after 64 rounds, which
-// only inputs built to defeat the pivot reach, the rest is sorted, so the
-// worst case is O(n log n)).
-func selectKth(x []float64, k int) float64 {
-	lo, hi := 0, len(x)-1
-	for rounds := 0; hi > lo; rounds++ {
-		if rounds == 64 {
-			slices.Sort(x[lo : hi+1])
-			return x[k]
-		}
-		mid := lo + (hi-lo)/2
-		if x[mid] < x[lo] {
-			x[mid], x[lo] = x[lo], x[mid]
-		}
-		if x[hi] < x[lo] {
-			x[hi], x[lo] = x[lo], x[hi]
-		}
-		if x[hi] < x[mid] {
-			x[hi], x[mid] = x[mid], x[hi]
-		}
-		pivot := x[mid]
-		i, j := lo, hi
-		for i <= j {
-			for x[i] < pivot {
-				i++
-			}
-			for x[j] > pivot {
-				j--
-			}
-			if i <= j {
-				x[i], x[j] = x[j], x[i]
-				i++
-				j--
-			}
-		}
-		switch {
-		case k <= j:
-			hi = j
-		case k >= i:
-			lo = i
-		default:
-			return x[k]
-		}
-	}
-	return x[k]
+	return robust.SelectQuantile(buf, p)
 }
 
 // Omega is the angular frequency of the annual harmonic, 2π/365.25 per day.

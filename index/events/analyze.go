@@ -9,6 +9,7 @@ import (
 	"strconv"
 
 	"rebound/index/calendar"
+	"rebound/index/robust"
 	"rebound/index/series"
 )
 
@@ -315,6 +316,18 @@ func fixedPercentile(w *workspace, x []float64, p float64) float64 {
 	}
 	w.pool = v
 	return percentile(v, p)
+}
+
+// percentile returns the p-th percentile (0 <= p <= 100) of x by linear
+// interpolation between order statistics, type 7 of Hyndman & Fan (1996),
+// with numpy's arithmetic: robust.SelectQuantile at p/100, the fraction
+// numpy.percentile computes first. It reorders x. It returns NaN when x is
+// empty; x must hold no NaN.
+func percentile(x []float64, p float64) float64 {
+	if !(p >= 0 && p <= 100) {
+		panic("events: percentile out of range")
+	}
+	return robust.SelectQuantile(x, p/100)
 }
 
 // prefix returns the ID prefix of a kind.
