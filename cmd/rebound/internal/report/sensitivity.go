@@ -427,7 +427,7 @@ func SensitivitySummary(r *pipeline.Run) []string {
 			}
 		}
 		msg := fmt.Sprintf("No station stays in the %s %d in 95%% of the samples", where, top)
-		if best >= 0 {
+		if best >= 0 && p(mc.Stations[best]) > 0 {
 			msg += fmt.Sprintf("; the surest is %s, there in %.0f%% of them", stationName(r, best), 100*p(mc.Stations[best]))
 		}
 		return msg + "."
@@ -449,8 +449,12 @@ func SensitivitySummary(r *pipeline.Run) []string {
 	if p := structuralParagraph(r); p != "" {
 		out = append(out, p)
 	}
-	out = append(out, fmt.Sprintf("Agreement with the configured ranking over the samples: Spearman's rho averages %s (5th percentile %s), Kendall's tau-b %s.",
-		Round(mc.Spearman.Mean, 3), Round(mc.Spearman.P05, 3), Round(mc.Kendall.Mean, 3)))
+	if math.IsNaN(mc.Spearman.Mean) {
+		out = append(out, "Rank correlations with the configured ranking need at least two stations with a score.")
+	} else {
+		out = append(out, fmt.Sprintf("Agreement with the configured ranking over the samples: Spearman's rho averages %s (5th percentile %s), Kendall's tau-b %s.",
+			Round(mc.Spearman.Mean, 3), Round(mc.Spearman.P05, 3), Round(mc.Kendall.Mean, 3)))
+	}
 	return out
 }
 
@@ -639,6 +643,9 @@ func widestRange(r *pipeline.Run, qs []int) (station int, lo, hi int32) {
 // runs over the scenarios qs.
 func spearmanRange(sr *sensitivity.StructuralResult, qs []int) string {
 	lo, hi := qs[0], qs[0]
+	if math.IsNaN(sr.Spearman[lo]) {
+		return "Spearman's rho with the configured ranking is undefined (fewer than two stations with a score)"
+	}
 	for _, q := range qs {
 		if sr.Spearman[q] < sr.Spearman[lo] {
 			lo = q

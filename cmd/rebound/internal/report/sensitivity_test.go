@@ -208,3 +208,38 @@ func TestSensitivitySummary(t *testing.T) {
 		}
 	}
 }
+
+// One station with a score: nothing to correlate, and the summary says so
+// instead of printing undefined numbers.
+func TestSensitivitySummaryOneStation(t *testing.T) {
+	r, _ := testrun.Load(t, map[string]string{
+		"s.toml": `[inputs]
+attributes = "stations.csv"
+[[indicator]]
+name = "forest"
+measure = "attribute"
+attribute = "forest_pct"
+better = "higher"
+weight = 1
+[sensitivity]
+samples = 50
+[sensitivity.sobol]
+base_samples = 16
+bootstrap = 10
+`,
+		"stations.csv": "station,name,latitude,longitude,forest_pct\nA,Alpha,40,-30,50\nB,Beta,41,-30,\n",
+	}, "s.toml")
+	text := strings.Join(report.SensitivitySummary(r), "\n")
+	for _, want := range []string{"Robustly in the top 1 (there in at least 95% of the samples): A (Alpha).",
+		"No station stays in the bottom 1 in 95% of the samples.", "need at least two stations with a score"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("summary lacks %q:\n%s", want, text)
+		}
+	}
+	if strings.Contains(text, "NaN") || strings.Contains(text, "()") {
+		t.Errorf("undefined numbers in the summary:\n%s", text)
+	}
+	for _, write := range []func(io.Writer, *pipeline.Run) error{report.WriteSensitivity, report.WriteOAT, report.WriteSobol} {
+		readCSV(t, write, r)
+	}
+}
