@@ -2,6 +2,7 @@ package pipeline
 
 import (
 	"fmt"
+	"math"
 	"slices"
 	"strings"
 
@@ -94,10 +95,19 @@ func (r *Run) analyzeSensitivity() error {
 				Msg: "sensitivity: this indicator carries all the weight, so moving it one at a time leaves no other weight to rescale; its one-at-a-time runs are left out"})
 		}
 	}
+	n := len(r.Raw.Stations)
+	counter := int64(2)
+	if cs.Samples > math.MaxUint16 {
+		counter = 4
+	}
+	if limit := min(int(math.Sqrt(float64(maxHistogramBytes/counter))), math.MaxUint16); n > limit {
+		return fmt.Errorf("sensitivity: %d stations are too many for the Monte Carlo analysis: its rank histograms hold n² counters of %d bytes in at most %d MiB, enough for %d stations; run it on a subset of the stations",
+			n, counter, maxHistogramBytes>>20, limit)
+	}
+	set.MaxMemory = maxHistogramBytes
 	if res.MonteCarlo, err = sensitivity.MonteCarlo(model, set); err != nil {
 		return fail("Monte Carlo", err)
 	}
-	n := len(r.Raw.Stations)
 	if top := res.MonteCarlo.TopN; 2*top > n {
 		res.Warnings = append(res.Warnings, &index.Warning{Msg: fmt.Sprintf(
 			"sensitivity: the top and bottom groups of %d stations overlap (%d stations); lower sensitivity.top_n", top, n)})
@@ -115,6 +125,10 @@ func (r *Run) analyzeSensitivity() error {
 	r.Warnings = append(r.Warnings, res.Warnings...)
 	return nil
 }
+
+// maxHistogramBytes bounds the Monte Carlo rank histograms (the library's
+// default).
+const maxHistogramBytes = 1 << 30
 
 // sensitivitySettings translates [sensitivity] into the settings of the
 // analyses, with the run's seed. Weights used outside their bounds are

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"os"
+	"path/filepath"
 	"reflect"
 	"slices"
 	"strings"
@@ -303,5 +305,29 @@ func TestSensitivitySettings(t *testing.T) {
 	}
 	if r.Sensitivity != nil {
 		t.Error("a sensitivity result without a [sensitivity] section")
+	}
+}
+
+// More stations than the rank histograms can hold: an error that says
+// what to do, before any sample is drawn.
+func TestSensitivityTooManyStations(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("station,name,latitude,longitude,x1,x2,x3\n")
+	for i := range 23171 { // √(2^30/2) = 23170.5
+		fmt.Fprintf(&b, "S%05d,,40,-30,%d,%d,%d\n", i, i%97, i%89, i%83)
+	}
+	dir := t.TempDir()
+	for name, text := range map[string]string{"s.toml": sensConfig + "[sensitivity]\n", "stations.csv": b.String()} {
+		if err := os.WriteFile(filepath.Join(dir, name), []byte(text), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	r, errs := pipeline.Load(filepath.Join(dir, "s.toml"))
+	if len(errs) > 0 {
+		t.Fatal(errs)
+	}
+	err := r.Score()
+	if err == nil || !strings.Contains(err.Error(), "23171 stations are too many for the Monte Carlo analysis: its rank histograms hold n² counters of 2 bytes in at most 1024 MiB, enough for 23170 stations") {
+		t.Errorf("error %v", err)
 	}
 }
