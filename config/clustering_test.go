@@ -151,3 +151,22 @@ func TestClusterScopeNeedsSection(t *testing.T) {
 		t.Errorf("with the section: %v", errs)
 	}
 }
+
+// FuzzClustering: no [clustering] section panics the decoder, the
+// validation or ClusterFeatures, and every error prints.
+func FuzzClustering(f *testing.F) {
+	f.Add("features = [\"water_temperature.mean\", \"discharge.p05\"]\nk = 3\n")
+	f.Add("features = [\"x\", \".mean\", \"discharge.\", \"a.b.c\"]\nmethod = \"average\"\nscale = \"robust\"\n")
+	f.Add("k = -1\nk_min = 5\nk_max = 2\ntwo_stage_groups = 0\nmin_coverage = nan\n")
+	f.Add("features_file = \"f.csv\"\npca_components = 3\n")
+	f.Fuzz(func(t *testing.T, section string) {
+		cfg, errs := Decode(base+"[[indicator]]\nname = \"a\"\nmeasure = \"recovery\"\nweight = 1\n[clustering]\n"+section, "f.toml")
+		if len(errs) == 0 {
+			errs = cfg.Validate()
+			cfg.ClusterFeatures()
+		}
+		for _, e := range errs {
+			_ = e.Error()
+		}
+	})
+}

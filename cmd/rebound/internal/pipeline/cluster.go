@@ -592,11 +592,13 @@ func clusterTable(t *features.Table, units []string, cl *config.Clustering, seed
 
 // FeatureWords returns the plain-language words for the high and low ends
 // of feature name ("<variable>.<statistic>"), used to describe clusters.
-// Features it does not know get "high name" and "low name".
+// Features it does not know get "high name" and "low name" (a column of a
+// feature table, "petal_width", gets "high petal width").
 func FeatureWords(name string) clustering.Words {
 	v, stat, ok := strings.Cut(name, ".")
 	if !ok {
-		return clustering.Words{High: "high " + name, Low: "low " + name}
+		label := strings.ReplaceAll(name, "_", " ")
+		return clustering.Words{High: "high " + label, Low: "low " + label}
 	}
 	if w, ok := knownWords[v+"."+stat]; ok {
 		return w

@@ -471,7 +471,7 @@ func TestFeatureWords(t *testing.T) {
 		{"water_temperature.mean", "warm", "cool"},
 		{"specific_conductance.sd", "variable specific conductance", "steady specific conductance"},
 		{"dissolved_oxygen.p05", "high dissolved oxygen p05", "low dissolved oxygen p05"},
-		{"petal_width", "high petal_width", "low petal_width"},
+		{"petal_width", "high petal width", "low petal width"},
 	} {
 		if w := FeatureWords(tc.name); w.High != tc.high || w.Low != tc.low {
 			t.Errorf("%s: %+v", tc.name, w)
