@@ -189,3 +189,13 @@ func FuzzDecode(f *testing.F) {
 		}
 	})
 }
+
+func TestCanonicalUnits(t *testing.T) {
+	for _, tc := range []struct{ in, want string }{
+		{"degF", "°C"}, {"degC", "°C"}, {"ft3/s", "m³/s"}, {"cms", "m³/s"}, {"uS/cm", "µS/cm"}, {"mg/L", "mg/L"},
+	} {
+		if got := (Variable{Units: tc.in}).CanonicalUnits(); got != tc.want {
+			t.Errorf("%s: %s, want %s", tc.in, got, tc.want)
+		}
+	}
+}

@@ -1,6 +1,11 @@
 package config
 
-import "fmt"
+import (
+	"fmt"
+	"strings"
+
+	"rebound/index/series"
+)
 
 // Events configures how events are derived from daily series. Every field
 // has a default (DefaultEvents); the template documents each.
@@ -218,4 +223,19 @@ func (c *Config) validateEvents(bad reportFunc) {
 	if c.DeriveEvents() && e.Dryness.Measure != c.Memory.Dryness {
 		bad("memory.dryness", "the derived antecedent dryness is %q (events.dryness.measure); set memory.dryness to match", e.Dryness.Measure)
 	}
+}
+
+// CanonicalUnits returns the units of the variable's values after reading:
+// °C for any temperature unit, m³/s for any discharge unit, µS/cm for
+// "uS/cm", and the configured units otherwise. Outputs label values with
+// these.
+func (v Variable) CanonicalUnits() string {
+	u := series.LookupUnit(v.Units).Canonical()
+	switch strings.ToLower(u) {
+	case "us/cm", "µs/cm":
+		return "µS/cm"
+	case "us/cm@25c", "µs/cm@25c":
+		return "µS/cm at 25 °C"
+	}
+	return u
 }

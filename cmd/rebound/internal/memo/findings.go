@@ -130,7 +130,7 @@ func (m *writer) departure() error {
 		st := r.Attrs.Stations[i]
 		units := ""
 		if v, ok := r.Config.Variable(f.Variable); ok {
-			units = v.Units
+			units = v.CanonicalUnits()
 		}
 		w := charts.Window{Station: st.ID + " " + st.Name, Variable: strings.ReplaceAll(f.Variable, "_", " "), Units: units,
 			Event: kindWord(f.Kind) + " " + f.EventID, First: f.First, Observed: f.Observed, Normal: f.Normal,

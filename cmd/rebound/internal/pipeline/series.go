@@ -381,15 +381,37 @@ func (r *Run) seriesIndicators() *index.Series {
 	return ser
 }
 
-// focus keeps the record of the first response variable around the
-// station's most harmful event (largest harmful peak departure relative to
-// its recovery band), for the memo's chart.
+// focus keeps a window of the record around the station's most harmful
+// event, for the memo's chart: the heat wave or drought with the largest
+// harmful peak departure, relative to its recovery band, of the first
+// response variable the station records (water temperature in the usual
+// configuration); any event and variable when there is none.
 func focus(st *series.Station, res events.Result, o events.Options) *Focus {
+	if f := pickFocus(st, res, o, true); f != nil {
+		return f
+	}
+	return pickFocus(st, res, o, false)
+}
+
+func pickFocus(st *series.Station, res events.Result, o events.Options, strict bool) *Focus {
+	primary := ""
+	for _, v := range o.Responses {
+		if st.Var(v.Name) != nil {
+			primary = v.Name
+			break
+		}
+	}
 	best, bestScore := -1, math.Inf(-1)
 	var bestResp events.Response
 	var harmful float64
 	for k, e := range res.Events {
+		if strict && e.Kind != events.HeatWaveKind && e.Kind != events.DroughtKind {
+			continue
+		}
 		for _, rsp := range e.Responses {
+			if strict && rsp.Variable != primary {
+				continue
+			}
 			h := 1.0
 			for _, v := range o.Responses {
 				if v.Name == rsp.Variable {

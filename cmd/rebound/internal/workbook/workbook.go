@@ -485,7 +485,7 @@ func (w *writer) events() {
 	r := w.r
 	units := map[string]string{}
 	for _, v := range r.Config.Variables {
-		units[v.Name] = v.Units
+		units[v.Name] = v.CanonicalUnits()
 	}
 	evs := r.Events.Events
 	idx := make([]int, len(evs))
