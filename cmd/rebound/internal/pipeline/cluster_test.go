@@ -523,3 +523,31 @@ bootstrap = 0
 		t.Errorf("inputs %q lack the feature table", roles)
 	}
 }
+
+// Coverage counts water years (October–September) when events.water_year
+// is set: a record from October 2010 to September 2012 holds two complete
+// water years but only one calendar year with 80 % of its days.
+func TestClusterCoverageWaterYear(t *testing.T) {
+	var w strings.Builder
+	for _, line := range strings.SplitAfter(stationSeries("W1", 1100, 12, 5, 210, 1, 1, 20), "\n") {
+		if d, _, _ := strings.Cut(strings.TrimPrefix(line, "W1,"), ","); d >= "2010-10-01" && d <= "2012-09-30" {
+			w.WriteString(line)
+		}
+	}
+	series := "station,date,variable,value\n" + w.String() +
+		stationSeries("A1", 1100, 9, 2, 200, 1, 0.5, 30) +
+		stationSeries("A2", 1100, 9.2, 2.1, 205, 1.2, 0.6, 31) +
+		stationSeries("B1", 1100, 15, 8, 215, 0.5, 5, 12)
+	for _, waterYear := range []bool{false, true} {
+		dir := writeDir(t, map[string]string{
+			"rebound.toml": strings.Replace(smallClusterConfig, "[clustering]", fmt.Sprintf("[events]\nwater_year = %v\n\n[clustering]", waterYear), 1),
+			"series.csv":   series,
+			"stations.csv": "station,name,latitude,longitude,forest_pct\nW1,w,46,-38,1\nA1,a1,46,-38,2\nA2,a2,46,-38,3\nB1,b1,46,-38,4\n",
+			"events.csv":   "station,event,kind,variable,start,end,peak_departure,recovery_days,recovered,antecedent_dryness\nA1,E1,heatwave,water_temperature,2010-07-01,2010-07-05,1.5,4,true,0.2\n",
+		})
+		c := mustLoad(t, filepath.Join(dir, "rebound.toml"), Options{}).Clusters
+		if got := c.Row("W1") >= 0; got != waterYear {
+			t.Errorf("water_year = %v: W1 clustered %v, left out %v", waterYear, got, c.Excluded)
+		}
+	}
+}
