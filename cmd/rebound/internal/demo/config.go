@@ -139,9 +139,9 @@ weight = 0.20
 
 [[indicator]]
 name = "drought_memory"
-label = "Extra warming per unit of antecedent dryness (°C)"
+label = "Extra heat-wave warming per unit of antecedent dryness (°C)"
 measure = "memory"
-kinds = ["heatwave", "drought"]
+kinds = ["heatwave"]
 variables = ["water_temperature"]
 weight = 0.15
 

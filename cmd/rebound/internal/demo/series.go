@@ -57,14 +57,15 @@ type kindModel struct {
 	doDeficit  float64 // mg/L below saturation, typical
 	noiseTW    float64
 	lowFlowHot float64 // °C added at zero flow relative to the median
+	memAmp     float64 // extra warming per °C of warm-air anomaly in a fully dry basin
 }
 
 var kindModels = map[Kind]kindModel{
-	Spring:    {airOffset: 0, slowTau: 160, quickTau: 2, slowShare: 0.85, twRate: 0.35, diel: 0.4, condBase: 430, condExp: 0.05, doDeficit: 0.3, noiseTW: 0.15, lowFlowHot: 0.3},
-	Snowmelt:  {airOffset: -4, slowTau: 45, quickTau: 2, slowShare: 0.55, twRate: 0.4, diel: 1.6, condBase: 65, condExp: 0.25, doDeficit: 0.2, noiseTW: 0.15, lowFlowHot: 2.0},
+	Spring:    {airOffset: 0, slowTau: 160, quickTau: 2, slowShare: 0.85, twRate: 0.35, diel: 0.4, condBase: 430, condExp: 0.05, doDeficit: 0.3, noiseTW: 0.15, lowFlowHot: 0.3, memAmp: 0.05},
+	Snowmelt:  {airOffset: -4, slowTau: 45, quickTau: 2, slowShare: 0.55, twRate: 0.4, diel: 1.6, condBase: 65, condExp: 0.25, doDeficit: 0.2, noiseTW: 0.15, lowFlowHot: 1.2, memAmp: 0.1},
 	Tailwater: {airOffset: 1, slowTau: 90, quickTau: 4, slowShare: 0.6, twRate: 0.5, diel: 0.8, condBase: 260, condExp: 0.1, doDeficit: 0.4, noiseTW: 0.1, lowFlowHot: 0.5},
-	Urban:     {airOffset: 1.5, slowTau: 25, quickTau: 0.8, slowShare: 0.2, twRate: 0.6, diel: 2.6, condBase: 720, condExp: 0.25, doDeficit: 1.0, noiseTW: 0.25, lowFlowHot: 0.8},
-	Lowland:   {airOffset: 1.5, slowTau: 420, quickTau: 5, slowShare: 0.7, twRate: 0.12, diel: 1.5, condBase: 560, condExp: 0.35, doDeficit: 1.4, noiseTW: 0.15, lowFlowHot: 1.0},
+	Urban:     {airOffset: 1.5, slowTau: 25, quickTau: 0.8, slowShare: 0.2, twRate: 0.6, diel: 2.6, condBase: 720, condExp: 0.25, doDeficit: 1.0, noiseTW: 0.25, lowFlowHot: 0.8, memAmp: 0.05},
+	Lowland:   {airOffset: 1.5, slowTau: 420, quickTau: 5, slowShare: 0.7, twRate: 0.12, diel: 1.5, condBase: 560, condExp: 0.35, doDeficit: 1.4, noiseTW: 0.15, lowFlowHot: 1.0, memAmp: 0.5},
 }
 
 // doSat is the dissolved-oxygen concentration at saturation (mg/L) in fresh
@@ -279,7 +280,7 @@ func stationSeries(g *region, s Station, index int, rain, noise []float64, rng *
 		case Spring:
 			eq = 10.5 + 0.1*(airSmooth-10.5) + m.lowFlowHot*lowFlow
 		case Snowmelt:
-			eq = 0.5 + 0.7*math.Max(0, airSmooth) + m.lowFlowHot*lowFlow + 0.25*g.heat[i]*memory[i]
+			eq = 0.5 + 0.7*math.Max(0, airSmooth) + m.lowFlowHot*lowFlow
 			if snow > 20 {
 				eq -= math.Min(4, snow/100) // meltwater keeps the stream cold
 			}
@@ -302,9 +303,12 @@ func stationSeries(g *region, s Station, index int, rain, noise []float64, rng *
 		case Lowland:
 			// Heat waves charge a store that drains over a month; a dry
 			// basin (depleted slow store) charges it faster.
-			heatStore = heatStore*(1-1.0/30) + 0.022*g.heat[i]*(1+2.5*memory[i])
+			heatStore = heatStore*(1-1.0/30) + 0.012*g.heat[i]*(1+2.5*memory[i])
 			eq = 1.0 + 0.85*airSmooth + m.lowFlowHot*lowFlow + heatStore
 		}
+		// A dry basin (shallow, slow water; depleted groundwater) warms more
+		// for the same warm spell: the memory of drought.
+		eq += m.memAmp * memory[i] * math.Max(0, airSmooth-g.seasonalAir(i)-m.airOffset)
 		t += m.twRate * (eq - t)
 		t = math.Max(0, t)
 		tw[i] = t + m.noiseTW*rng.NormFloat64()
