@@ -205,23 +205,33 @@ func lerp(a, b, t float64) float64 {
 
 // TheilSen returns the Theil–Sen estimate of the slope of y on x: the
 // median of the slopes (y_j − y_i)/(x_j − x_i) over all pairs i < j with
-// x_i ≠ x_j. ok is false when fewer than one such pair exists. It uses
-// O(n²) memory and time, which suits the tens of events per station it
-// serves. It panics if the slices differ in length.
+// x_i ≠ x_j (see PairwiseSlopes). ok is false when fewer than one such
+// pair exists. It uses O(n²) memory and time, which suits the tens of
+// events per station it serves. It panics if the slices differ in length.
 func TheilSen(x, y []float64) (slope float64, ok bool) {
-	if len(x) != len(y) {
-		panic("robust: slice length mismatch")
-	}
-	slopes := make([]float64, 0, len(x)*(len(x)-1)/2)
-	for i := range x {
-		for j := i + 1; j < len(x); j++ {
-			if dx := x[j] - x[i]; dx != 0 {
-				slopes = append(slopes, (y[j]-y[i])/dx)
-			}
-		}
-	}
+	slopes := PairwiseSlopes(nil, x, y)
 	if len(slopes) == 0 {
 		return math.NaN(), false
 	}
 	return SelectQuantile(slopes, 0.5), true
+}
+
+// PairwiseSlopes sets dst to the slopes (y_j − y_i)/(x_j − x_i) over all
+// pairs i < j with x_i ≠ x_j, in the order of i, then j, and returns it;
+// dst is grown as needed. The Theil–Sen slope is their median; computing
+// it as SelectQuantile(PairwiseSlopes(buf[:0], x, y), 0.5) reuses buf from
+// one sample to the next. It panics if x and y differ in length.
+func PairwiseSlopes(dst, x, y []float64) []float64 {
+	if len(x) != len(y) {
+		panic("robust: slice length mismatch")
+	}
+	dst = slices.Grow(dst[:0], len(x)*(len(x)-1)/2)
+	for i := range x {
+		for j := i + 1; j < len(x); j++ {
+			if dx := x[j] - x[i]; dx != 0 {
+				dst = append(dst, (y[j]-y[i])/dx)
+			}
+		}
+	}
+	return dst
 }

@@ -239,3 +239,19 @@ func TestSelectOrders(t *testing.T) {
 		})
 	}
 }
+
+func TestPairwiseSlopes(t *testing.T) {
+	// By hand: pairs (0,1), (0,2), (1,2), (1,3) and (2,3); x_0 = x_3, so
+	// the pair (0,3) has no slope.
+	x := []float64{0, 1, 3, 0}
+	y := []float64{1, 3, 2, 4}
+	want := []float64{2, 1.0 / 3, -0.5, -1, -2.0 / 3}
+	buf := make([]float64, 1, 2)
+	got := PairwiseSlopes(buf, x, y)
+	if !slices.Equal(got, want) {
+		t.Errorf("PairwiseSlopes = %v, want %v", got, want)
+	}
+	if got := PairwiseSlopes(nil, nil, nil); len(got) != 0 {
+		t.Errorf("no pairs: %v", got)
+	}
+}
