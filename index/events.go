@@ -158,6 +158,10 @@ type rowParser struct {
 	name string
 	errs *tabular.List
 	in   interner
+	// The last start and end read without error: the rows of an event's
+	// variables share them.
+	lastDate [2][]byte
+	lastDay  [2]calendar.Date
 }
 
 // field returns column k of EventColumns, trimmed of surrounding spaces.
@@ -196,11 +200,16 @@ func (p *rowParser) event() Event {
 
 func (p *rowParser) date(k int) (calendar.Date, bool) {
 	s := p.field(k)
+	c := k - 4 // start or end
+	if bytes.Equal(s, p.lastDate[c]) && len(s) > 0 {
+		return p.lastDay[c], true
+	}
 	d, err := calendar.ParseBytes(s)
 	if err != nil {
 		p.bad(k, fmt.Errorf("%w, got %q", err, s))
 		return 0, false
 	}
+	p.lastDate[c], p.lastDay[c] = append(p.lastDate[c][:0], s...), d
 	return d, true
 }
 
@@ -307,24 +316,29 @@ func csvError(name string, err error) error {
 
 // interner shares the storage of repeated strings (station, kind and
 // variable names repeat on every row, event identifiers on the rows of
-// each variable). It remembers the last value of each column, which is
-// usually the next one too.
+// each variable). Each column remembers its last few values, which are
+// usually the next ones too, before asking the map.
 type interner struct {
-	m    map[string]string
-	last [4]string
+	m      map[string]string
+	recent [4][4]string // per column, filled round robin
+	next   [4]int
 }
 
 // get returns s as a string, the same storage for the same text.
 func (in *interner) get(col int, s []byte) string {
-	if string(s) == in.last[col] {
-		return in.last[col]
+	r := &in.recent[col]
+	for _, v := range r {
+		if string(s) == v {
+			return v
+		}
 	}
 	v, ok := in.m[string(s)]
 	if !ok {
 		v = string(s)
 		in.m[v] = v
 	}
-	in.last[col] = v
+	r[in.next[col]] = v
+	in.next[col] = (in.next[col] + 1) % len(r)
 	return v
 }
 

@@ -185,20 +185,15 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 // outside its scale.
 func groupEvents(byStation [][]*Event, events *EventTable, attrs *attributes.Table, cfg *config.Config, errs *tabular.List) map[string]int {
 	unknownVar := map[string]int{}
-	at := make([]int32, len(events.Events)) // station index, −1 for none
 	start := make([]int, len(attrs.Stations)+1)
 	// Rows come grouped by station, and a handful of variables repeat:
 	// remember the last of each.
-	lastStation, lastIdx, lastOK := "", 0, false
+	st := stationIndex{attrs: attrs}
 	lastVar, lastKnown := "", false
 	for k := range events.Events {
 		e := &events.Events[k]
-		at[k] = -1
-		if k == 0 || e.Station != lastStation {
-			lastStation = e.Station
-			lastIdx, lastOK = attrs.Index(e.Station)
-		}
-		if !lastOK {
+		i, ok := st.of(e.Station)
+		if !ok {
 			errs.Add(&tabular.ParseError{File: events.File, Line: e.Line, Column: "station",
 				Err: fmt.Errorf("station %q is not in the attribute table %s", e.Station, attrs.File)})
 			continue
@@ -214,8 +209,7 @@ func groupEvents(byStation [][]*Event, events *EventTable, attrs *attributes.Tab
 		if !lastKnown {
 			unknownVar[e.Variable]++
 		}
-		at[k] = int32(lastIdx)
-		start[lastIdx+1]++
+		start[i+1]++
 	}
 	for i := range attrs.Stations {
 		start[i+1] += start[i]
@@ -223,9 +217,10 @@ func groupEvents(byStation [][]*Event, events *EventTable, attrs *attributes.Tab
 	// One array of pointers, cut into the stations' runs.
 	all := make([]*Event, start[len(attrs.Stations)])
 	next := slices.Clone(start)
-	for k, i := range at {
-		if i >= 0 {
-			all[next[i]] = &events.Events[k]
+	for k := range events.Events {
+		e := &events.Events[k]
+		if i, ok := st.of(e.Station); ok {
+			all[next[i]] = e
 			next[i]++
 		}
 	}
@@ -237,13 +232,32 @@ func groupEvents(byStation [][]*Event, events *EventTable, attrs *attributes.Tab
 	return unknownVar
 }
 
+// stationIndex looks stations up in an attribute table, remembering the
+// last one.
+type stationIndex struct {
+	attrs *attributes.Table
+	last  string
+	i     int
+	ok    bool
+	init  bool
+}
+
+func (s *stationIndex) of(id string) (int, bool) {
+	if !s.init || id != s.last {
+		s.init, s.last = true, id
+		s.i, s.ok = s.attrs.Index(id)
+	}
+	return s.i, s.ok
+}
+
 // scratch holds buffers that the computation of one station's indicators
 // reuses for the next.
 type scratch struct {
-	ids  []string
-	sel  []*Event
-	a, b []float64
-	obs  []bool
+	ids    []string
+	sel    []*Event
+	a, b   []float64
+	obs    []bool
+	slopes []float64
 }
 
 // indicator computes indicator ind at station i from its events evs.
@@ -315,11 +329,13 @@ func (sc *scratch) indicator(ind config.Indicator, evs []*Event, attrCol []float
 		if len(x) < cfg.Memory.MinEvents {
 			return nan, fmt.Sprintf("%d events with known antecedent dryness and peak departure, fewer than memory.min_events = %d", len(x), cfg.Memory.MinEvents), false
 		}
-		slope, ok := robust.TheilSen(x, y)
-		if !ok {
+		// The Theil–Sen slope (robust.TheilSen), its slopes in a reused
+		// buffer.
+		sc.slopes = robust.PairwiseSlopes(sc.slopes, x, y)
+		if len(sc.slopes) == 0 {
 			return nan, "antecedent dryness is the same for every event; no slope", false
 		}
-		return slope, "", false
+		return robust.SelectQuantile(sc.slopes, 0.5), "", false
 	}
 	return nan, "unknown measure " + string(ind.Measure), false
 }
