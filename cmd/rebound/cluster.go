@@ -76,18 +76,8 @@ func cmdCluster(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	var paths []string
-	for _, o := range outs {
-		paths = append(paths, filepath.Join(dir, o.Name))
-	}
-	if err := r.CheckOutputs(paths); err != nil {
+	if err := writeRendered(r, dir, outs); err != nil {
 		return err
-	}
-	for i, o := range outs {
-		data := o.Data
-		if err := report.WriteFile(paths[i], func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
-			return err
-		}
 	}
 	report.PrintClusters(stdout, r.Clusters)
 	fmt.Fprintln(stdout)

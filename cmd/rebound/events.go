@@ -7,7 +7,6 @@ import (
 	"path/filepath"
 
 	"rebound/cmd/rebound/internal/pipeline"
-	"rebound/cmd/rebound/internal/report"
 )
 
 func cmdEvents(args []string, stdout, stderr io.Writer) error {
@@ -38,18 +37,8 @@ func cmdEvents(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	var paths []string
-	for _, o := range outs {
-		paths = append(paths, filepath.Join(dir, o.Name))
-	}
-	if err := r.CheckOutputs(paths); err != nil {
+	if err := writeRendered(r, dir, outs); err != nil {
 		return err
-	}
-	for i, o := range outs {
-		data := o.Data
-		if err := report.WriteFile(paths[i], func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
-			return err
-		}
 	}
 	rows, stations := 0, 0
 	kinds := map[string]int{}

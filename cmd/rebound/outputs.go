@@ -127,18 +127,27 @@ func writeOutputs(r *pipeline.Run, dir string) (names []string, err error) {
 	}
 	outs = append(outs, output{"run.json", buf.Bytes()})
 
+	if err := writeRendered(r, dir, outs); err != nil {
+		return nil, err
+	}
+	return names, nil
+}
+
+// writeRendered writes rendered outputs into dir, each atomically, after
+// checking that none would overwrite an input.
+func writeRendered(r *pipeline.Run, dir string, outs []output) error {
 	paths := make([]string, len(outs))
 	for i, o := range outs {
 		paths[i] = filepath.Join(dir, filepath.FromSlash(o.Name))
 	}
 	if err := r.CheckOutputs(paths); err != nil {
-		return nil, err
+		return err
 	}
 	for i, o := range outs {
 		data := o.Data
 		if err := report.WriteFile(paths[i], func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
-			return nil, err
+			return err
 		}
 	}
-	return names, nil
+	return nil
 }

@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"fmt"
 	"io"
-	"path/filepath"
 	"strconv"
 	"strings"
 
@@ -102,23 +101,4 @@ func renderSensitivity(r *pipeline.Run, _ *report.Manifest) ([]output, error) {
 		outs = append(outs, output{name, buf.Bytes()})
 	}
 	return outs, nil
-}
-
-// writeRendered writes rendered outputs into dir, each atomically, after
-// checking that none would overwrite an input.
-func writeRendered(r *pipeline.Run, dir string, outs []output) error {
-	paths := make([]string, len(outs))
-	for i, o := range outs {
-		paths[i] = filepath.Join(dir, filepath.FromSlash(o.Name))
-	}
-	if err := r.CheckOutputs(paths); err != nil {
-		return err
-	}
-	for i, o := range outs {
-		data := o.Data
-		if err := report.WriteFile(paths[i], func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
-			return err
-		}
-	}
-	return nil
 }
