@@ -59,7 +59,7 @@ func cmdCluster(args []string, stdout, stderr io.Writer) error {
 	}
 
 	prog := newProgress(stderr, *quiet)
-	opt := pipeline.Options{Progress: prog.stations, ClusterProgress: prog.stage, Clustering: override}
+	opt := pipeline.Options{Progress: prog.stations, ClusterProgress: prog.stage, Clustering: override, OnlyClusters: true}
 	var r *pipeline.Run
 	var errs []error
 	if *cfgPath != "" {

@@ -21,7 +21,7 @@ func cmdEvents(args []string, stdout, stderr io.Writer) error {
 		return usageError{"events: -config FILE is required"}
 	}
 	prog := newProgress(stderr, *quiet)
-	r, errs := pipeline.LoadInputs(*cfgPath, pipeline.Options{Progress: prog.stations})
+	r, errs := pipeline.LoadInputs(*cfgPath, pipeline.Options{Progress: prog.stations, NoClusters: true})
 	prog.done()
 	if len(errs) > 0 {
 		return reportProblems(stderr, errs)

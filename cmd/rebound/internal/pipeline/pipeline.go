@@ -56,6 +56,7 @@ type Run struct {
 	Warnings []error
 
 	progress        func(int)
+	onlyClusters    bool
 	clusterProgress func(stage string, done, total int)
 }
 
@@ -75,6 +76,10 @@ type Options struct {
 	// stages ("scoring k", "partitions", "bootstrap") with the work done
 	// and the total.
 	ClusterProgress func(stage string, done, total int)
+	// OnlyClusters skips deriving events and criteria from the series (the
+	// cluster command needs only the features); NoClusters skips the
+	// clustering (the events and check commands).
+	OnlyClusters, NoClusters bool
 }
 
 // Load reads and validates the configuration at path and every input it
@@ -114,7 +119,10 @@ func LoadInputs(path string, opt Options) (*Run, []error) {
 			return nil, errs
 		}
 	}
-	r := &Run{Config: cfg, progress: opt.Progress, clusterProgress: opt.ClusterProgress}
+	if opt.NoClusters {
+		cfg.Clustering = nil
+	}
+	r := &Run{Config: cfg, progress: opt.Progress, clusterProgress: opt.ClusterProgress, onlyClusters: opt.OnlyClusters}
 	if in, err := digest("config", path); err == nil {
 		r.Inputs = append(r.Inputs, in)
 	}
@@ -156,7 +164,7 @@ func LoadInputs(path string, opt Options) (*Run, []error) {
 	if len(errs) > 0 {
 		return nil, errs
 	}
-	if needsSeries(cfg) {
+	if r.needsSeries() {
 		if serrs := r.passSeries(50); len(serrs) > 0 {
 			return nil, serrs
 		}

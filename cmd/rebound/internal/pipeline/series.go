@@ -109,14 +109,15 @@ func criteriaOptions(cfg *config.Config) criteria.Options {
 }
 
 // needsSeries reports whether the run reads the daily records.
-func needsSeries(cfg *config.Config) bool {
+func (r *Run) needsSeries() bool {
+	cfg := r.Config
 	if !cfg.HasSeries() {
 		return false
 	}
-	if cfg.DeriveEvents() || len(cfg.Criteria) > 0 || cfg.Clustering != nil {
+	if cfg.Clustering != nil {
 		return true
 	}
-	return false
+	return !r.onlyClusters && (cfg.DeriveEvents() || len(cfg.Criteria) > 0)
 }
 
 // passSeries reads every series file once, station by station, and keeps
@@ -128,7 +129,7 @@ func (r *Run) passSeries(maxErrors int) []error {
 	for _, s := range r.Attrs.Stations {
 		known[s.ID] = true
 	}
-	derive := cfg.DeriveEvents()
+	derive := cfg.DeriveEvents() && !r.onlyClusters
 	var evOpt events.Options
 	var users []events.UserEvent
 	if derive {
@@ -156,6 +157,9 @@ func (r *Run) passSeries(maxErrors int) []error {
 		}
 	}
 	crOpt := criteriaOptions(cfg)
+	if r.onlyClusters {
+		crOpt.Criteria = nil
+	}
 	extract := r.featureExtractor()
 	analyzers := sync.Pool{New: func() any { return new(events.Analyzer) }}
 
