@@ -137,7 +137,7 @@ func Departure(w Window) ([]byte, error) {
 		names = append(names, fmt.Sprintf("recovered (%d days after the event)", w.RecoveryDays))
 		thumbs = append(thumbs, lineThumb{recStyle})
 	} else {
-		p.Title.Text += " (not recovered within the window shown)"
+		p.Title.Text += "\nnot back within the recovery band before the next event or the record's end"
 	}
 	legH := legendHeight(len(names), 2)
 	h := 3.4 * vg.Inch
