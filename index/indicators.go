@@ -3,6 +3,7 @@ package index
 import (
 	"cmp"
 	"fmt"
+	"hash/maphash"
 	"math"
 	"slices"
 	"strconv"
@@ -111,11 +112,18 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 	if events != nil {
 		unknownVar := groupEvents(byStation, events, attrs, cfg, &errs)
 		// Duplicate rows, station by station: sorting a few dozen events
-		// is far cheaper than one map over a million rows. The order is
-		// total but for rows that agree on event, variable and line,
-		// whose reports are the same in any order.
+		// is far cheaper than one map over a million rows, and sorting
+		// hashes of them cheaper still; only a station whose hashes
+		// repeat (a duplicate, or rarely two pairs with the same hash)
+		// has its events sorted. That order is total but for rows that
+		// agree on event, variable and line, whose reports are the same
+		// in any order.
+		var d dupFinder
 		var sorted []*Event
 		for i, evs := range byStation {
+			if !d.mayRepeat(evs) {
+				continue
+			}
 			sorted = append(sorted[:0], evs...)
 			slices.SortFunc(sorted, func(a, b *Event) int {
 				return cmp.Or(strings.Compare(a.ID, b.ID), strings.Compare(a.Variable, b.Variable), a.Line-b.Line)
@@ -230,6 +238,41 @@ func groupEvents(byStation [][]*Event, events *EventTable, attrs *attributes.Tab
 		}
 	}
 	return unknownVar
+}
+
+// dupFinder tells whether a station's events may repeat an event and
+// variable, from hashes of the pairs. The hash seed differs from run to
+// run, which changes at most which stations are sorted, never a result.
+type dupFinder struct {
+	seed    maphash.Seed
+	hashes  []uint64
+	lastVar string
+	varHash uint64
+}
+
+func (d *dupFinder) mayRepeat(evs []*Event) bool {
+	if len(evs) < 2 {
+		return false
+	}
+	if d.hashes == nil {
+		d.seed = maphash.MakeSeed()
+		d.varHash = maphash.String(d.seed, "")
+	}
+	h := d.hashes[:0]
+	for _, e := range evs {
+		if e.Variable != d.lastVar {
+			d.lastVar, d.varHash = e.Variable, maphash.String(d.seed, e.Variable)
+		}
+		h = append(h, maphash.String(d.seed, e.ID)*0x9E3779B97F4A7C15^d.varHash)
+	}
+	d.hashes = h
+	slices.Sort(h)
+	for k := 1; k < len(h); k++ {
+		if h[k] == h[k-1] {
+			return true
+		}
+	}
+	return false
 }
 
 // stationIndex looks stations up in an attribute table, remembering the
