@@ -134,12 +134,26 @@ type scatterSeries struct {
 }
 
 // printSetup prints a sheet landscape, one page wide, repeating its
-// header row on every page.
+// header row on every page. The print area is the sheet's cells, so the
+// charts beside a table stay on screen without shrinking the printed table
+// to an unreadable size.
 func (w *writer) printSetup(sheet string) {
 	w.set(w.f.SetSheetProps(sheet, &excelize.SheetPropsOptions{FitToPage: ptr(true)}))
 	w.set(w.f.SetPageLayout(sheet, &excelize.PageLayoutOptions{Orientation: ptr("landscape"), FitToWidth: ptr(1), FitToHeight: ptr(0)}))
 	if sheet != SheetSummary {
 		w.set(w.f.SetDefinedName(&excelize.DefinedName{Name: "_xlnm.Print_Titles", RefersTo: fmt.Sprintf("'%s'!$1:$1", sheet), Scope: sheet}))
+	}
+	rows, err := w.f.GetRows(sheet)
+	if err != nil || len(rows) == 0 {
+		return
+	}
+	cols := 0
+	for _, r := range rows {
+		cols = max(cols, len(r))
+	}
+	if cols > 0 {
+		w.set(w.f.SetDefinedName(&excelize.DefinedName{Name: "_xlnm.Print_Area",
+			RefersTo: fmt.Sprintf("'%s'!$A$1:$%s$%d", sheet, colName(cols), len(rows)), Scope: sheet}))
 	}
 }
 
@@ -180,6 +194,11 @@ func (w *writer) summary() {
 		w.value(s, cell(2, row), v)
 		w.set(f.MergeCell(s, cell(2, row), cell(5, row)))
 		w.style(s, cell(2, row), cell(5, row), w.wrap)
+		// The merged cell is about 100 characters wide: give wrapped text
+		// the lines it needs.
+		if text, ok := v.(string); ok && len(text) > 95 {
+			w.set(f.SetRowHeight(s, row, float64(15*(1+len(text)/95))))
+		}
 		row++
 	}
 	kv("Tool", "rebound "+man.Version+" ("+man.Go+")")
