@@ -308,47 +308,6 @@ func rankComposites(composite []float64, id []string) (rank, order []int) {
 	return rank, order
 }
 
-// Rank ranks finished scores, such as the rounded scores of a report, from
-// highest (rank 1) to lowest. Scores within 1e-9 of each other tie and
-// share the lower rank number (competition ranking: 1, 2, 2, 4); NaN
-// scores come last and share a rank. order lists the indices from rank 1
-// down, breaking ties by id. Score does not use it: it ranks the unrounded
-// composites exactly (see Result.Rank).
-func Rank(score []float64, id []string) (rank, order []int) {
-	n := len(score)
-	order = make([]int, n)
-	for i := range order {
-		order[i] = i
-	}
-	slices.SortFunc(order, func(a, b int) int {
-		sa, sb := score[a], score[b]
-		na, nb := math.IsNaN(sa), math.IsNaN(sb)
-		switch {
-		case na != nb:
-			if na {
-				return 1
-			}
-			return -1
-		case !na && math.Abs(sa-sb) > 1e-9:
-			return cmp.Compare(sb, sa)
-		}
-		return cmp.Compare(id[a], id[b])
-	})
-	rank = make([]int, n)
-	for p, i := range order {
-		if p > 0 {
-			prev := order[p-1]
-			sp, si := score[prev], score[i]
-			if (math.IsNaN(sp) && math.IsNaN(si)) || math.Abs(sp-si) <= 1e-9 {
-				rank[i] = rank[prev]
-				continue
-			}
-		}
-		rank[i] = p + 1
-	}
-	return rank, order
-}
-
 func usesEvents(inds []config.Indicator) bool {
 	return slices.ContainsFunc(inds, func(in config.Indicator) bool { return in.Measure.FromEvents() })
 }

@@ -196,11 +196,13 @@ func TestGroupScope(t *testing.T) {
 }
 
 func TestRankTies(t *testing.T) {
-	score := []float64{50, 80, 50, math.NaN(), 80 + 1e-12, 10}
+	// Competition ranking (1, 2, 2, 4), NaN last and sharing a rank; the
+	// listing breaks ties by station identifier (common practice).
+	composite := []float64{0.5, 0.8, 0.5, math.NaN(), 0.8, 0.1}
 	id := []string{"e", "b", "a", "z", "c", "f"}
-	rank, order := Rank(score, id)
+	rank, order := rankComposites(composite, id)
 	wantRank := []int{3, 1, 3, 6, 1, 5}
-	wantOrder := []int{1, 4, 2, 0, 5, 3} // b, c (tie at 80), a, e (tie at 50), f, z
+	wantOrder := []int{1, 4, 2, 0, 5, 3} // b, c (tie at 0.8), a, e (tie at 0.5), f, z
 	for i := range wantRank {
 		if rank[i] != wantRank[i] || order[i] != wantOrder[i] {
 			t.Fatalf("rank %v order %v; want %v %v", rank, order, wantRank, wantOrder)
