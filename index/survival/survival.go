@@ -58,6 +58,18 @@ func KaplanMeier(times []float64, observed []bool) Curve {
 	if len(data) > 0 {
 		c.MaxTime = data[len(data)-1].t
 	}
+	// One allocation for the four curves, sized for the most event times
+	// there can be.
+	events := 0
+	for _, d := range data {
+		if d.event {
+			events++
+		}
+	}
+	floats := make([]float64, 2*events)
+	ints := make([]int, 2*events)
+	c.Times, c.S = floats[:0:events], floats[events:events:2*events]
+	c.AtRisk, c.Deaths = ints[:0:events], ints[events:events:2*events]
 	atRisk := len(data)
 	s := 1.0
 	for i := 0; i < len(data); {
