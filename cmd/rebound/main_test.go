@@ -2,7 +2,9 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
 	"flag"
+	"io/fs"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -82,11 +84,15 @@ func TestDemoGolden(t *testing.T) {
 		t.Fatalf("second demo run: %d %s", status, stderr)
 	}
 	second := readOutputs(t, filepath.Join(dir, "demo", "out"))
+	if _, ok := first["figures/scores.png"]; !ok || len(first) != len(second) {
+		t.Errorf("outputs: %d files, then %d; figures/scores.png read: %v", len(first), len(second), ok)
+	}
 	for name, b := range first {
 		if !bytes.Equal(b, second[name]) {
 			t.Errorf("%s differs between two runs", name)
 		}
 	}
+	checkSeriesSummary(t, first["run.json"])
 
 	// A demo file edited by the user is not overwritten.
 	cfg := filepath.Join(dir, "demo", "rebound.toml")
@@ -100,27 +106,67 @@ func TestDemoGolden(t *testing.T) {
 	}
 }
 
+// readOutputs reads every file under dir (figures/ included), keyed by its
+// path relative to dir, and fails on a temporary file left behind.
 func readOutputs(t *testing.T, dir string) map[string][]byte {
 	t.Helper()
 	out := map[string][]byte{}
-	entries, err := os.ReadDir(dir)
+	err := filepath.WalkDir(dir, func(path string, e fs.DirEntry, err error) error {
+		if err != nil || e.IsDir() {
+			return err
+		}
+		rel, err := filepath.Rel(dir, path)
+		if err != nil {
+			return err
+		}
+		if strings.HasPrefix(e.Name(), ".") {
+			t.Errorf("temporary file left behind: %s", rel)
+		}
+		b, err := os.ReadFile(path)
+		out[filepath.ToSlash(rel)] = b
+		return err
+	})
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, e := range entries {
-		if e.IsDir() {
-			continue
-		}
-		if strings.HasPrefix(e.Name(), ".") {
-			t.Errorf("temporary file left behind: %s", e.Name())
-		}
-		b, err := os.ReadFile(filepath.Join(dir, e.Name()))
-		if err != nil {
-			t.Fatal(err)
-		}
-		out[e.Name()] = b
-	}
 	return out
+}
+
+// checkSeriesSummary checks the series section of the demo's run.json: the
+// demo's six wide files hold 32 stations (not 6 × 32), and the totals add
+// up the stations' counts, filled days included.
+func checkSeriesSummary(t *testing.T, manifest []byte) {
+	t.Helper()
+	type counts map[string]map[string]int
+	var m struct {
+		Series struct {
+			Stations   int               `json:"stations"`
+			Totals     counts            `json:"totals"`
+			PerStation map[string]counts `json:"per_station"`
+		} `json:"series"`
+	}
+	if err := json.Unmarshal(manifest, &m); err != nil {
+		t.Fatal(err)
+	}
+	if m.Series.Stations != 32 {
+		t.Errorf("run.json: series.stations = %d, want 32", m.Series.Stations)
+	}
+	for v, tot := range m.Series.Totals {
+		sum := map[string]int{}
+		for _, st := range m.Series.PerStation {
+			for k, n := range st[v] {
+				sum[k] += n
+			}
+		}
+		for k, n := range tot {
+			if sum[k] != n {
+				t.Errorf("run.json: series.totals.%s.%s = %d, the stations add up to %d", v, k, n, sum[k])
+			}
+		}
+		if tot["filled"] == 0 {
+			t.Errorf("run.json: series.totals.%s.filled = 0; the demo fills gaps", v)
+		}
+	}
 }
 
 func TestExitStatuses(t *testing.T) {

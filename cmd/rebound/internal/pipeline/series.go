@@ -215,14 +215,15 @@ func (r *Run) passSeries(maxErrors int) []error {
 		}
 		return nil
 	}
-	addSummary := func(name string, rows int, s series.Summary) {
+	addFile := func(name string, s series.Summary) {
 		sum.Files = append(sum.Files, name)
-		sum.Rows += rows
-		sum.Stations += s.Stations
+		sum.Rows += s.Rows
 		for k, n := range s.Skipped {
 			sum.Skipped[k] += n
 		}
-		for k, c := range s.Vars {
+	}
+	addCounts := func(vars map[string]*series.Counts) {
+		for k, c := range vars {
 			if sum.Vars[k] == nil {
 				sum.Vars[k] = &series.Counts{}
 			}
@@ -250,7 +251,9 @@ func (r *Run) passSeries(maxErrors int) []error {
 		in.Rows = s.Rows
 		in.Rejected = s.BadRows
 		r.Inputs = append(r.Inputs, in)
-		addSummary(path, s.Rows, s)
+		addFile(path, s)
+		sum.Stations += s.Stations
+		addCounts(s.Vars) // taken after work, so filled days are counted
 	}
 	if len(cfg.Inputs.Wide) > 0 {
 		merged := map[string]*series.Station{}
@@ -279,7 +282,7 @@ func (r *Run) passSeries(maxErrors int) []error {
 			}
 			in.Rows = s.Rows
 			r.Inputs = append(r.Inputs, in)
-			addSummary(path, s.Rows, s)
+			addFile(path, s)
 			for _, st := range stations {
 				if m, ok := merged[st.ID]; ok {
 					if _, err := series.Merge(m, st); err != nil {
@@ -299,6 +302,12 @@ func (r *Run) passSeries(maxErrors int) []error {
 			if err := series.MapStations(list, 0, work, emit); err != nil {
 				errs = append(errs, err)
 			}
+		}
+		// A station of several wide files is one station, and its counts
+		// are taken after work has filled its gaps, as for long files.
+		sum.Stations += len(list)
+		for _, st := range list {
+			addCounts(st.Counts)
 		}
 	}
 	if len(errs) > 0 {
