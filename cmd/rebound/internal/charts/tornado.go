@@ -1,10 +1,8 @@
 package charts
 
 import (
-	"cmp"
 	"fmt"
 	"math"
-	"slices"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -20,17 +18,16 @@ type Swing struct {
 	Down, Up float64 // ranks, >= 0; NaN when the run could not be made
 }
 
-// Tornado draws one row per indicator, the largest swing at the top: a bar
-// to the left for the weight lowered and one to the right for the weight
-// raised, each as long as the largest rank change it caused. step
-// describes the relative step (for example "±25 %").
+// Tornado draws one row per indicator, from the top in the order given
+// (the caller puts the largest swing first): a bar to the left for the
+// weight lowered and one to the right for the weight raised, each as long
+// as the largest rank change it caused. step describes the relative step
+// (for example "±25 %").
 func Tornado(swings []Swing, step string) ([]byte, error) {
 	if len(swings) == 0 {
 		return nil, ErrNoData
 	}
-	rows := slices.Clone(swings)
-	total := func(s Swing) float64 { return nanZero(s.Down) + nanZero(s.Up) }
-	slices.SortStableFunc(rows, func(a, b Swing) int { return cmp.Compare(total(b), total(a)) })
+	rows := swings
 	labels := make([]string, len(rows))
 	top := 1.0
 	for i, s := range rows {

@@ -20,8 +20,9 @@ type Station struct {
 	Rank                int     // 1 = most resilient
 	// RankLow and RankHigh bound the station's rank under the weight
 	// sensitivity analysis (the better and the worse end of its interval);
-	// 0 when no such analysis ran. Stability is its class there ("" when
-	// none).
+	// 0 when no such analysis ran or the station has no score. Stability
+	// is its class there ("unranked" for a station without a score; ""
+	// when the analysis did not run).
 	RankLow, RankHigh int
 	Stability         string
 	// Cluster is the station's cluster, numbered from 1; 0 when the run
@@ -52,7 +53,7 @@ func Stations(r *pipeline.Run, e view.Extras) []Station {
 			Events: r.Raw.Events[i], Flags: res.Flags[i],
 		})
 		st := &out[len(out)-1]
-		if s := e.Sensitivity; s != nil && s.Low[i] > 0 {
+		if s := e.Sensitivity; s != nil {
 			st.RankLow, st.RankHigh, st.Stability = s.Low[i], s.High[i], s.Stability[i]
 		}
 		if c := e.Clusters; c != nil && c.Labels[i] >= 0 {

@@ -9,11 +9,13 @@
 package view
 
 import (
+	"cmp"
 	"math"
 	"slices"
 
 	"rebound/clustering"
 	"rebound/cmd/rebound/internal/pipeline"
+	"rebound/index/sensitivity"
 )
 
 // Extras are the optional results of a run.
@@ -35,7 +37,8 @@ type Sensitivity struct {
 	Samples  int
 	Interval string
 	// Low, Median and High are each station's better-end, median and
-	// worse-end rank over the samples; 0 for a station without a score.
+	// worse-end rank over the samples; 0 for a station without a score
+	// (stability "unranked"), which has no rank interval.
 	Low, Median, High []int
 	// Stability classes each station ("robust-top", "robust-bottom",
 	// "stable", "weight-dependent", "unranked"); TopN is the size of the
@@ -46,8 +49,9 @@ type Sensitivity struct {
 	// rankings with the base ranking.
 	Spearman float64
 	// Step is the one-at-a-time relative step (0.25 = ±25 %), and Swings
-	// the largest rank change of any station per indicator, in indicator
-	// order; nil when the one-at-a-time analysis did not run.
+	// the largest rank change of any station per indicator, the indicator
+	// that moves the ranking most first (see SwingOrder); nil when the
+	// one-at-a-time analysis did not run.
 	Step   float64
 	Swings []Swing
 	// Sobol holds first-order and total Sobol indices of the mean absolute
@@ -168,7 +172,10 @@ func sensitivityOf(r *pipeline.Run) *Sensitivity {
 	s := &Sensitivity{Samples: mc.Samples, Interval: "5th–95th percentile", TopN: mc.TopN, Spearman: mc.Spearman.Mean,
 		Low: make([]int, n), Median: make([]int, n), High: make([]int, n), Stability: make([]string, n)}
 	for i, st := range mc.Stations {
-		s.Low[i], s.Median[i], s.High[i], s.Stability[i] = int(st.Low), int(st.Median), int(st.High), st.Stability.String()
+		s.Stability[i] = st.Stability.String()
+		if st.Stability != sensitivity.Unranked {
+			s.Low[i], s.Median[i], s.High[i] = int(st.Low), int(st.Median), int(st.High)
+		}
 	}
 	if oat := sr.OAT; oat != nil && len(oat.Runs) > 0 {
 		// The largest step shows the effects most clearly.
@@ -189,6 +196,7 @@ func sensitivityOf(r *pipeline.Run) *Sensitivity {
 			}
 			s.Swings = append(s.Swings, sw)
 		}
+		SortSwings(s.Swings)
 	}
 	if sob := sr.Sobol; sob != nil && sob.Inputs == len(r.Raw.Indicators) && sob.Outputs > n {
 		first, total := sob.FirstOrder(n), sob.TotalOrder(n)
@@ -204,6 +212,27 @@ func sensitivityOf(r *pipeline.Run) *Sensitivity {
 		}
 	}
 	return s
+}
+
+// SortSwings orders one-at-a-time results the way every output lists
+// them: by the largest rank change of any station in either direction, then
+// by the two directions' largest changes added up, then by the mean
+// absolute change, ties kept in the order given (indicator order). A NaN
+// (a run not made) counts as no change.
+func SortSwings(swings []Swing) {
+	slices.SortStableFunc(swings, func(a, b Swing) int {
+		return cmp.Or(
+			cmp.Compare(max(nz(b.Down), nz(b.Up)), max(nz(a.Down), nz(a.Up))),
+			cmp.Compare(nz(b.Down)+nz(b.Up), nz(a.Down)+nz(a.Up)),
+			cmp.Compare(max(nz(b.MeanDown), nz(b.MeanUp)), max(nz(a.MeanDown), nz(a.MeanUp))))
+	})
+}
+
+func nz(x float64) float64 {
+	if math.IsNaN(x) {
+		return 0
+	}
+	return x
 }
 
 func clustersOf(r *pipeline.Run) *Clusters {

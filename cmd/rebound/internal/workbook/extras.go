@@ -128,15 +128,8 @@ func (w *writer) sensitivity() {
 		{fmt.Sprintf("Largest rank change, weight raised %g %% (ranks)", 100*sv.Step), 16, fmtInt},
 		{"Mean rank change, lowered (ranks)", 13, fmt2}, {"Mean rank change, raised (ranks)", 13, fmt2},
 		{"Lowered, drawn leftwards (−ranks)", 13, fmtInt}}
-	order := make([]int, len(sv.Swings))
-	for i := range order {
-		order[i] = i
-	}
-	swing := func(j int) float64 { return nz(sv.Swings[j].Down) + nz(sv.Swings[j].Up) }
-	slices.SortStableFunc(order, func(a, b int) int { return cmp.Compare(swing(b), swing(a)) })
 	var rows [][]any
-	for _, j := range order {
-		sw := sv.Swings[j]
+	for _, sw := range sv.Swings { // the largest swing first, as everywhere
 		wj := math.NaN()
 		for k, ind := range w.r.Raw.Indicators {
 			if ind.Name == sw.Indicator {
