@@ -5,6 +5,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"strings"
 
 	"rebound/cmd/rebound/internal/pipeline"
 )
@@ -55,16 +56,15 @@ func cmdEvents(args []string, stdout, stderr io.Writer) error {
 			}
 		}
 	}
-	fmt.Fprintf(stdout, "%d stations read; %d event rows at %d stations (", len(r.Stations), rows, stations)
-	first := true
+	var parts []string
 	for _, k := range sortedKeys(kinds) {
-		if !first {
-			fmt.Fprint(stdout, ", ")
-		}
-		first = false
-		fmt.Fprintf(stdout, "%d %s", kinds[k], k)
+		parts = append(parts, fmt.Sprintf("%d %s", kinds[k], k))
 	}
-	fmt.Fprintf(stdout, ")\n")
+	fmt.Fprintf(stdout, "%s read; %s at %s", count(len(r.Stations), "station"), count(rows, "event row"), count(stations, "station"))
+	if len(parts) > 0 {
+		fmt.Fprintf(stdout, " (%s)", strings.Join(parts, ", "))
+	}
+	fmt.Fprintln(stdout)
 	for _, o := range outs {
 		fmt.Fprintf(stdout, "Wrote %s\n", filepath.Join(dir, o.Name))
 	}
@@ -106,4 +106,12 @@ func (p *progress) done() {
 	if p.printed {
 		fmt.Fprintln(p.w)
 	}
+}
+
+// count is "1 station", "2 stations".
+func count(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
 }

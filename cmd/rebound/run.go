@@ -276,6 +276,8 @@ func runPipeline(cfgPath, out string, seed *uint64, all, quiet bool, stdout, std
 	if r.Sensitivity != nil {
 		fmt.Fprintln(stdout)
 		report.PrintSensitivity(stdout, r, summaryWidth)
+	} else if r.SensitivitySkipped != "" {
+		fmt.Fprintf(stdout, "\nThe sensitivity analysis was skipped: %s.\n", r.SensitivitySkipped)
 	}
 	fmt.Fprintf(stdout, "\nWrote %s to %s", strings.Join(names, ", "), dir)
 	if len(r.Warnings) > 0 {
@@ -310,7 +312,11 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	r, errs := pipeline.Load(*cfgPath)
 	if len(errs) > 0 {
 		reportProblems(stderr, errs)
-		fmt.Fprintf(stderr, "%d problems found\n", len(errs))
+		if len(errs) == 1 {
+			fmt.Fprintln(stderr, "1 problem found")
+		} else {
+			fmt.Fprintf(stderr, "%d problems found\n", len(errs))
+		}
 		return errReported{len(errs)}
 	}
 	events := 0

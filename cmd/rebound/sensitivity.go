@@ -61,6 +61,9 @@ func cmdSensitivity(args []string, stdout, stderr io.Writer) error {
 	if err := r.Score(); err != nil {
 		return err
 	}
+	if r.Sensitivity == nil {
+		return fmt.Errorf("sensitivity: %s", r.SensitivitySkipped)
+	}
 	dir := r.OutputDir(*out)
 	outs, err := renderSensitivity(r, nil)
 	if err != nil {
@@ -74,6 +77,7 @@ func cmdSensitivity(args []string, stdout, stderr io.Writer) error {
 		fmt.Fprintf(stdout, "%s has no [sensitivity] section: the defaults are used (rebound init shows them).\n\n", *cfgPath)
 	}
 	report.PrintSensitivity(stdout, r, summaryWidth)
+	fmt.Fprintf(stdout, "\n%s\n", report.Caution)
 	var names []string
 	for _, o := range outs {
 		names = append(names, o.Name)

@@ -6,6 +6,8 @@ import (
 	"math"
 	"slices"
 	"strings"
+	"unicode"
+	"unicode/utf8"
 
 	"rebound/cmd/rebound/internal/charts"
 	"rebound/cmd/rebound/internal/report"
@@ -27,7 +29,7 @@ func (m *writer) extremes(j, n int) (high, low []int, present int) {
 	})
 	k := min(n, len(idx)/2)
 	if len(idx) == 1 {
-		k = 1
+		return idx, nil, 1
 	}
 	high = idx[:k]
 	low = reverse(idx[len(idx)-k:])
@@ -49,6 +51,25 @@ func (m *writer) valueList(j int, idx []int) string {
 	return joinAnd(parts)
 }
 
+// spread says which stations have the highest and the lowest values of
+// indicator j, with format (two %s verbs, for high and low), or which
+// station alone has a value.
+func (m *writer) spread(j int, high, low []int, format string) string {
+	if len(low) == 0 {
+		return "only " + m.valueList(j, high) + " has a value"
+	}
+	return fmt.Sprintf(format, m.valueList(j, high), m.valueList(j, low))
+}
+
+// upperFirst raises the first letter of s.
+func upperFirst(s string) string {
+	r, n := utf8.DecodeRuneInString(s)
+	if n == 0 {
+		return s
+	}
+	return string(unicode.ToUpper(r)) + s[n:]
+}
+
 // num formats x with three significant digits, without trailing zeros
 // after a decimal point.
 func num(x float64) string {
@@ -64,9 +85,11 @@ func (m *writer) findings() error {
 	m.p("## Heat waves, droughts and recovery\n\n")
 	said := false
 	for j, ind := range r.Raw.Indicators {
-		label := lowerFirst(ind.Label)
-		if label == "" {
-			label = ind.Name
+		// about is "(label, indicator name)", or "(indicator name)"
+		// for an indicator without a label.
+		about := "(indicator " + code(ind.Name) + ")"
+		if ind.Label != "" {
+			about = "(" + esc(lowerFirst(ind.Label)) + ", indicator " + code(ind.Name) + ")"
 		}
 		high, low, n := m.extremes(j, 3)
 		if n == 0 {
@@ -74,9 +97,9 @@ func (m *writer) findings() error {
 		}
 		switch {
 		case ind.Measure == config.Magnitude && slices.Contains(ind.Kinds, "heatwave"):
-			m.para("Heat waves (%s, indicator %s): the largest values are at %s; the smallest at %s.", esc(label), code(ind.Name), m.valueList(j, high), m.valueList(j, low))
+			m.para("Heat waves %s: %s.", about, m.spread(j, high, low, "the largest values are at %s; the smallest at %s"))
 		case ind.Measure == config.Magnitude && len(ind.Kinds) > 0:
-			m.para("%s (indicator %s): the largest values are at %s; the smallest at %s.", esc(ind.Label), code(ind.Name), m.valueList(j, high), m.valueList(j, low))
+			m.para("%s (indicator %s): %s.", esc(cmp.Or(ind.Label, ind.Name)), code(ind.Name), m.spread(j, high, low, "the largest values are at %s; the smallest at %s"))
 		case ind.Measure == config.MemoryM:
 			pos := 0
 			for i := range r.Raw.Stations {
@@ -84,8 +107,8 @@ func (m *writer) findings() error {
 					pos++
 				}
 			}
-			m.para("Drought memory (%s, indicator %s): at %d of the %s with enough events, a drier spell beforehand made the same kind of disturbance do more harm (a positive slope). The strongest memory is at %s; the weakest at %s.",
-				esc(label), code(ind.Name), pos, count(n, "station"), m.valueList(j, high), m.valueList(j, low))
+			m.para("Drought memory %s: at %d of the %s with enough events, a drier spell beforehand made the same kind of disturbance do more harm (a positive slope). %s.",
+				about, pos, count(n, "station"), upperFirst(m.spread(j, high, low, "the strongest memory is at %s; the weakest at %s")))
 		case ind.Measure == config.Recovery:
 			rmst := 0
 			for i := range r.Raw.Stations {
@@ -97,7 +120,7 @@ func (m *writer) findings() error {
 			if rmst > 0 {
 				extra = fmt.Sprintf(" At %s, too many events had not recovered for a median, and the restricted mean is used instead (flag `km_rmst`).", count(rmst, "station"))
 			}
-			m.para("Recovery (%s, indicator %s): the slowest are %s; the quickest %s.%s", esc(label), code(ind.Name), m.valueList(j, high), m.valueList(j, low), extra)
+			m.para("Recovery %s: %s.%s", about, m.spread(j, high, low, "the slowest are %s; the quickest %s"), extra)
 		default:
 			continue
 		}

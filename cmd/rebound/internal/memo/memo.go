@@ -1,7 +1,6 @@
 package memo
 
 import (
-	"cmp"
 	"fmt"
 	"math"
 	"slices"
@@ -155,8 +154,13 @@ func (m *writer) method() error {
 	r := m.r
 	cfg := r.Config
 	m.p("## Method in brief\n\n")
-	m.para("Each station gets one value per indicator. The values are rescaled to a common 0–1 scale (%s, over %s) so that higher always means more resilient, weighted (%s), and combined by %s into a score from 0 to 100. Rank 1 is the most resilient station.",
-		normWords(cfg), scopeWords(cfg.Normalization.Scope), weightWords(r), aggWords(cfg))
+	if r.Result.Spec.Bounded() {
+		m.para("Each station gets one value per indicator. The values are rescaled to a common 0–1 scale (%s, over %s) so that higher always means more resilient, weighted (%s), and combined by %s into a score from 0 to 100. Rank 1 is the most resilient station.",
+			normWords(cfg), scopeWords(cfg.Normalization.Scope), weightWords(r), aggWords(cfg))
+	} else {
+		m.para("Each station gets one value per indicator. The values are put on a common scale (%s, over %s) so that higher always means more resilient, weighted (%s), and combined by %s; the results are rescaled so that the best station scores 100 and the worst 0. Rank 1 is the most resilient station.",
+			normWords(cfg), scopeWords(cfg.Normalization.Scope), weightWords(r), aggWords(cfg))
+	}
 	m.p("| Indicator | What it measures | Weight |\n|---|---|---:|\n")
 	for j, ind := range r.Raw.Indicators {
 		label := ind.Label
@@ -268,6 +272,10 @@ func (m *writer) ranking() error {
 func (m *writer) robustness() error {
 	r, sv := m.r, m.e.Sensitivity
 	m.p("## How far the ranking depends on the weights\n\n")
+	if sv == nil && r.SensitivitySkipped != "" {
+		m.para("The weight sensitivity analysis was skipped: %s. Read the ranking as a first look only.", esc(r.SensitivitySkipped))
+		return nil
+	}
 	if sv == nil {
 		m.para("No weight sensitivity analysis was run, so how far this ranking depends on the chosen weights is not known. Differences of a few score points between neighbouring stations should not be read as real differences; add a `[sensitivity]` section to the configuration to measure it.")
 		return nil
@@ -276,25 +284,36 @@ func (m *writer) robustness() error {
 	for _, i := range r.Result.Order {
 		byClass[sv.Stability[i]] = append(byClass[sv.Stability[i]], r.Attrs.Stations[i].ID)
 	}
-	m.para("The weights were varied at random around the configured ones (%d weight vectors) and every station ranked under each. The rank interval in the table above runs from the %s; the rankings agree closely with the configured one when the mean Spearman correlation (here %.3f) is near 1.",
-		sv.Samples, strings.Replace(sv.Interval, "–", " to the ", 1), sv.Spearman)
-	top, bottom := byClass["robust-top"], byClass["robust-bottom"]
-	switch {
-	case len(top) > 0:
-		m.para("Robustly among the %d most resilient, whatever the weights: %s.", sv.TopN, listIDs(top))
-	default:
-		m.para("No station stays among the %d most resilient under every weighting.", sv.TopN)
+	agree := ""
+	if !math.IsNaN(sv.Spearman) {
+		agree = fmt.Sprintf("; the rankings agree closely with the configured one when the mean Spearman correlation (here %.3f) is near 1", sv.Spearman)
 	}
-	switch {
-	case len(bottom) > 0:
-		m.para("Robustly among the %d least resilient: %s. These are the first candidates for a closer look.", sv.TopN, listIDs(bottom))
-	default:
-		m.para("No station stays among the %d least resilient under every weighting.", sv.TopN)
+	m.para("The weights were varied at random around the configured ones (%d weight vectors) and every station ranked under each. The rank interval in the table above runs from the %s%s.",
+		sv.Samples, strings.Replace(sv.Interval, "–", " to the ", 1), agree)
+	if len(r.Raw.Indicators) == 1 {
+		m.para("With a single indicator, whose weight is always 1, the weights cannot change the ranking.")
+	}
+	top, bottom := byClass["robust-top"], byClass["robust-bottom"]
+	among := func(word string) string {
+		if sv.TopN == 1 {
+			return "the " + word
+		}
+		return fmt.Sprintf("among the %d %s", sv.TopN, word)
+	}
+	if len(top) > 0 {
+		m.para("Robustly %s, whatever the weights: %s.", among("most resilient"), listIDs(top))
+	} else {
+		m.para("No station stays %s under every weighting.", among("most resilient"))
+	}
+	if len(bottom) > 0 {
+		m.para("Robustly %s: %s. These are the first candidates for a closer look.", among("least resilient"), listIDs(bottom))
+	} else {
+		m.para("No station stays %s under every weighting.", among("least resilient"))
 	}
 	if dep := byClass["weight-dependent"]; len(dep) > 0 {
-		m.para("Their place depends on the weighting (the rank interval spans more than %d ranks): %s. Read their ranks as approximate and agree the weights before acting on them.", sv.TopN, listIDs(dep))
+		m.para("Their place depends on the weighting (the rank interval spans more than %s): %s. Read their ranks as approximate and agree the weights before acting on them.", count(sv.TopN, "rank"), listIDs(dep))
 	} else {
-		m.para("No station's place depends strongly on the weighting: every rank interval spans at most %d ranks.", sv.TopN)
+		m.para("No station's place depends strongly on the weighting: every rank interval spans at most %s.", count(sv.TopN, "rank"))
 	}
 	if len(sv.Swings) > 0 {
 		var sw []charts.Swing
@@ -306,9 +325,7 @@ func (m *writer) robustness() error {
 		if err := m.figure(FigTornado, "Largest rank change of any station when one weight moves by "+step, data, err); err != nil {
 			return err
 		}
-		lead := slices.MaxFunc(sv.Swings, func(a, b view.Swing) int {
-			return cmp.Or(cmp.Compare(nz(a.Down)+nz(a.Up), nz(b.Down)+nz(b.Up)), cmp.Compare(b.Indicator, a.Indicator))
-		})
+		lead := sv.Swings[0] // the one that moves the ranking most
 		if nz(lead.Down)+nz(lead.Up) == 0 {
 			m.para("Moving any one weight by %s changes no station's rank.", step)
 		} else {

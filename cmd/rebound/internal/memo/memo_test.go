@@ -10,6 +10,7 @@ import (
 	"slices"
 	"strings"
 	"testing"
+	"unicode/utf8"
 
 	"rebound/cmd/rebound/internal/pipeline"
 	"rebound/cmd/rebound/internal/report"
@@ -163,5 +164,93 @@ func TestNum(t *testing.T) {
 		if got := num(tc.x); got != tc.want {
 			t.Errorf("num(%g) = %q, want %q", tc.x, got, tc.want)
 		}
+	}
+}
+
+// TestOddRuns renders memos of small runs that once printed nonsense: NaN,
+// a rank interval for a station without a score, a broken character for an
+// indicator without a label, a 0–1 scale for z-scores, a garbled sentence
+// for geometric aggregation.
+func TestOddRuns(t *testing.T) {
+	const stations = "station,name,latitude,longitude,forest_pct,baseflow\n" +
+		"A,Alpha,40,-30,50,0.4\nB,Beta,41,-30,,\nC,Gamma,42,-30,70,0.6\nD,Delta,43,-30,20,0.3\n"
+	indicators := `
+[[indicator]]
+name = "forest"
+measure = "attribute"
+attribute = "forest_pct"
+better = "higher"
+weight = 2
+[[indicator]]
+name = "baseflow"
+measure = "attribute"
+attribute = "baseflow"
+better = "higher"
+weight = 1
+`
+	for _, tc := range []struct {
+		name, config, stations string
+		want, not              []string
+	}{
+		{"one scored station", "[inputs]\nattributes = \"s.csv\"\n" + indicators + "[sensitivity]\nsamples = 50\n",
+			"station,name,latitude,longitude,forest_pct,baseflow\nA,Alpha,40,-30,50,0.4\nB,Beta,41,-30,,\n",
+			[]string{"The weight sensitivity analysis was skipped: 1 station has a score, so there is no ranking to test."},
+			[]string{"NaN", "the smallest", "| 2–2 |", "| 1–1 |"}},
+		{"unscored station", "[inputs]\nattributes = \"s.csv\"\n" + indicators + "[sensitivity]\nsamples = 50\n[sensitivity.sobol]\nenabled = false\n",
+			stations, []string{"| 4 | B | Beta | – | – |"}, []string{"NaN"}},
+		{"z-scores", "[inputs]\nattributes = \"s.csv\"\n" + indicators + "[normalization]\nmethod = \"zscore\"\n",
+			stations, []string{"put on a common scale (z-scores, over all stations together)", "the best station scores 100 and the worst 0"},
+			[]string{"0–1 scale"}},
+		{"geometric", "[inputs]\nattributes = \"s.csv\"\n" + indicators + "[aggregation]\nmethod = \"geometric\"\n",
+			stations, []string{"a weighted geometric mean (so a poor value is not fully offset by good ones) into a score from 0 to 100"}, nil},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			r, man := testrun.Load(t, map[string]string{"r.toml": tc.config, "s.csv": tc.stations}, "r.toml")
+			memo, figs, err := Render(r, man)
+			if err != nil {
+				t.Fatal(err)
+			}
+			checkFigures(t, memo, figs)
+			if !utf8.Valid(memo) || bytes.ContainsRune(memo, utf8.RuneError) {
+				t.Error("the memo has a broken character")
+			}
+			for _, w := range tc.want {
+				if !bytes.Contains(memo, []byte(w)) {
+					t.Errorf("memo lacks %q:\n%s", w, memo)
+				}
+			}
+			for _, w := range tc.not {
+				if bytes.Contains(memo, []byte(w)) {
+					t.Errorf("memo has %q:\n%s", w, memo)
+				}
+			}
+		})
+	}
+}
+
+// An indicator without a label is named by its name alone, and a single
+// station with a value is said to be the only one.
+func TestFindingsUnlabelled(t *testing.T) {
+	r, man := testrun.Load(t, map[string]string{
+		"r.toml": `[inputs]
+events = "e.csv"
+attributes = "s.csv"
+[[indicator]]
+name = "heat"
+measure = "magnitude"
+kinds = ["heatwave"]
+variables = ["water_temperature"]
+weight = 1
+`,
+		"s.csv": "station,name,latitude,longitude\nA,Alpha,40,-30\nB,Beta,41,-30\n",
+		"e.csv": "station,event,kind,variable,start,end,peak_departure,recovery_days,recovered,antecedent_dryness\n" +
+			"A,E1,heatwave,water_temperature,2020-07-01,2020-07-05,1.5,4,true,\n",
+	}, "r.toml")
+	memo, _, err := Render(r, man)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := "Heat waves (indicator `heat`): only A (1.5) has a value."; !bytes.Contains(memo, []byte(want)) {
+		t.Errorf("memo lacks %q:\n%s", want, memo)
 	}
 }

@@ -88,6 +88,9 @@ func listIDs(ids []string) string {
 // lowerFirst lowers the first letter of a label for use inside a
 // sentence, unless the second is upper case too (an abbreviation).
 func lowerFirst(s string) string {
+	if s == "" {
+		return ""
+	}
 	r, n := utf8.DecodeRuneInString(s)
 	if r2, _ := utf8.DecodeRuneInString(s[n:]); unicode.IsUpper(r2) {
 		return s
@@ -162,14 +165,14 @@ func weightWords(r *pipeline.Run) string {
 	case config.Equal:
 		return "equally"
 	case config.AHPW:
-		return fmt.Sprintf("by pairwise comparisons, AHP, consistency ratio %.2f", r.Weights.AHP.CR)
+		return fmt.Sprintf("by pairwise comparisons, AHP, consistency ratio %s", num(r.Weights.AHP.CR))
 	}
 	return "as configured"
 }
 
 func aggWords(cfg *config.Config) string {
 	if cfg.Aggregation.Method == config.Geometric {
-		return "a weighted geometric mean, so a poor value is not fully offset by good ones"
+		return "a weighted geometric mean (so a poor value is not fully offset by good ones)"
 	}
 	return "a weighted mean"
 }

@@ -51,6 +51,9 @@ type Run struct {
 	// Sensitivity is the robustness analysis of the ranking
 	// ([sensitivity]); nil when it did not run.
 	Sensitivity *SensitivityResult
+	// SensitivitySkipped says why a configured sensitivity analysis did
+	// not run ("" when it ran or was not configured).
+	SensitivitySkipped string
 	// Warnings gathers every warning of every step, for the manifest,
 	// workbook and memo.
 	Warnings []error

@@ -70,9 +70,20 @@ func (s Scenario) Name() string {
 // base result (index.Result.Model), so that they start from exactly the
 // ranking the run reports.
 func (r *Run) analyzeSensitivity() error {
-	r.Sensitivity = nil
+	r.Sensitivity, r.SensitivitySkipped = nil, ""
 	cs := r.Config.Sensitivity
 	if cs == nil {
+		return nil
+	}
+	scored := 0
+	for _, c := range r.Result.Composite {
+		if !math.IsNaN(c) {
+			scored++
+		}
+	}
+	if scored < 2 {
+		r.SensitivitySkipped = fmt.Sprintf("%s a score, so there is no ranking to test", countHave(scored, "station"))
+		r.Warnings = append(r.Warnings, &index.Warning{Msg: "sensitivity: skipped: " + r.SensitivitySkipped})
 		return nil
 	}
 	res := &SensitivityResult{}
@@ -110,7 +121,7 @@ func (r *Run) analyzeSensitivity() error {
 	}
 	if top := res.MonteCarlo.TopN; 2*top > n {
 		res.Warnings = append(res.Warnings, &index.Warning{Msg: fmt.Sprintf(
-			"sensitivity: the top and bottom groups of %d stations overlap (%d stations); lower sensitivity.top_n", top, n)})
+			"sensitivity: the top and bottom groups of %s overlap (%s in all); lower sensitivity.top_n", countStations(top), countStations(n))})
 	}
 	if err := r.structural(res); err != nil {
 		return fail("structural", err)
@@ -288,4 +299,20 @@ func (r *Run) checkSobol(res *SensitivityResult) {
 			"sensitivity: the %g%% intervals of the total Sobol indices of the rank shift are wide (%s); raise sensitivity.sobol.base_samples for firmer estimates",
 			100*s.Level, strings.Join(wide, ", "))})
 	}
+}
+
+// countHave is "1 station has", "0 stations have".
+func countHave(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun + " has"
+	}
+	return fmt.Sprintf("%d %ss have", n, noun)
+}
+
+// countStations is "1 station", "2 stations".
+func countStations(n int) string {
+	if n == 1 {
+		return "1 station"
+	}
+	return fmt.Sprintf("%d stations", n)
 }

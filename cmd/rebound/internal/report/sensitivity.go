@@ -12,6 +12,7 @@ import (
 	"strings"
 
 	"rebound/cmd/rebound/internal/pipeline"
+	"rebound/cmd/rebound/internal/view"
 	"rebound/config"
 	"rebound/index/sensitivity"
 )
@@ -401,9 +402,13 @@ func SensitivitySummary(r *pipeline.Run) []string {
 	if len(cs.Bounds) > 0 {
 		how += ", within the configured bounds"
 	}
-	out = append(out, fmt.Sprintf("How robust is the ranking? The %d stations were ranked again under %d sets of weights %s (seed %d). "+
+	first := fmt.Sprintf("How robust is the ranking? The %s were ranked again under %d sets of weights %s (seed %d). "+
 		"A station's rank interval runs from the 5th to the 95th percentile of its ranks over these samples.",
-		n, mc.Samples, how, s.Settings.Seed))
+		plural(n, "station"), mc.Samples, how, s.Settings.Seed)
+	if len(r.Raw.Indicators) == 1 {
+		first += " With a single indicator, whose weight is always 1, the weights cannot change the ranking; only other ways of building the index can."
+	}
+	out = append(out, first)
 
 	var robustTop, robustBottom, dependent []int
 	for _, i := range r.Result.Order {
@@ -495,39 +500,41 @@ func weightsParagraph(r *pipeline.Run) string {
 				}
 			}
 			b.WriteString(".")
-			if len(order) > shown {
-				last := order[len(order)-1]
+			if last := order[len(order)-1]; len(order) > shown && Round(st[last], 2) != Round(st[order[shown-1]], 2) {
 				fmt.Fprintf(&b, " The least: %s %s.", inds[last].Name, Round(st[last], 2))
 			}
 		}
 		b.WriteString(" ")
 	}
-	// One at a time, at the largest step.
-	oat := s.OAT
-	if len(oat.Runs) == 0 {
+	// One at a time, at the largest step, in the order every output uses.
+	if len(s.OAT.Runs) == 0 {
 		return strings.TrimSpace(b.String())
 	}
-	step := slices.MaxFunc(oat.Runs, func(a, c sensitivity.OATRun) int { return cmp.Compare(math.Abs(a.Delta), math.Abs(c.Delta)) }).Delta
-	step = math.Abs(step)
-	maxShift := make([]int32, len(inds))
-	meanShift := make([]float64, len(inds))
-	for _, run := range oat.Runs {
-		if math.Abs(run.Delta) == step {
-			maxShift[run.Indicator] = max(maxShift[run.Indicator], run.MaxShift)
-			meanShift[run.Indicator] = max(meanShift[run.Indicator], run.MeanShift)
-		}
+	sv := view.Of(r).Sensitivity
+	step := fmt.Sprintf("±%g%%", 100*sv.Step)
+	largest := func(sw view.Swing) int { return int(max(nz(sw.Down), nz(sw.Up))) }
+	if len(sv.Swings) == 0 || largest(sv.Swings[0]) == 0 {
+		fmt.Fprintf(&b, "Moving any one weight at a time by %s (the others rescaled) changes no station's rank.", step)
+		return b.String()
 	}
-	order := indicatorOrder(len(inds), func(j int) float64 { return float64(maxShift[j]) + meanShift[j]/1e6 })
-	fmt.Fprintf(&b, "Moving one weight at a time by ±%g%% (the others rescaled), ", 100*step)
-	shown := min(3, len(order))
-	for q, j := range order[:shown] {
-		if q > 0 {
-			b.WriteString("; ")
+	fmt.Fprintf(&b, "Moving one weight at a time by %s (the others rescaled), ", step)
+	var parts []string
+	for _, sw := range sv.Swings[:min(3, len(sv.Swings))] {
+		if largest(sw) == 0 {
+			break
 		}
-		fmt.Fprintf(&b, "%s moves a station by up to %s (%s on average)", inds[j].Name, plural(int(maxShift[j]), "rank"), Round(meanShift[j], 1))
+		parts = append(parts, fmt.Sprintf("%s moves a station by up to %s (%s on average)", sw.Indicator, plural(largest(sw), "rank"),
+			Round(max(nz(sw.MeanDown), nz(sw.MeanUp)), 1)))
 	}
-	b.WriteString(".")
+	b.WriteString(strings.Join(parts, "; ") + ".")
 	return b.String()
+}
+
+func nz(x float64) float64 {
+	if math.IsNaN(x) {
+		return 0
+	}
+	return x
 }
 
 // indicatorOrder returns 0..k−1 by decreasing key, NaN last, ties in
@@ -579,9 +586,11 @@ func structuralParagraph(r *pipeline.Run) string {
 	if len(same) > 0 {
 		msg := fmt.Sprintf("Other normalisations and aggregations (%s to the configured %s, named normalisation/aggregation/scope): ",
 			plural(len(same), "alternative"), sr.Names[0])
-		if i, lo, hi := widestRange(r, append([]int{0}, same...)); i >= 0 {
+		if i, lo, hi := widestRange(r, append([]int{0}, same...)); i >= 0 && hi > lo {
 			msg += fmt.Sprintf("the widest rank range of any station is %s, %s; ", plural(int(hi-lo), "rank"),
 				stationList(r, []int{i}, func(int) string { return fmt.Sprintf("ranks %d–%d", lo, hi) }))
+		} else if i >= 0 {
+			msg += "no station changes rank; "
 		}
 		parts = append(parts, msg+spearmanRange(sr, same)+".")
 	}
@@ -592,8 +601,15 @@ func structuralParagraph(r *pipeline.Run) string {
 				scopes = append(scopes, w)
 			}
 		}
-		parts = append(parts, fmt.Sprintf("Normalising %s instead (%s) compares each station with its peers rather than with every station, a different question: %s.",
-			strings.Join(scopes, " or "), plural(len(other), "alternative"), spearmanRange(sr, other)))
+		what := "compares each station with its peers rather than with every station"
+		if ref.Scope != config.ScopeAll {
+			what = "compares each station with a different set of stations than the configured scope does"
+			if len(scopes) == 1 && scopes[0] == scopeWords(config.ScopeAll) {
+				what = "compares each station with every station rather than with its peers"
+			}
+		}
+		parts = append(parts, fmt.Sprintf("Normalising %s instead (%s) %s, a different question: %s.",
+			strings.Join(scopes, " or "), plural(len(other), "alternative"), what, spearmanRange(sr, other)))
 	}
 	return strings.Join(parts, " ") + skipped
 }

@@ -209,9 +209,10 @@ func TestSensitivitySummary(t *testing.T) {
 	}
 }
 
-// One station with a score: nothing to correlate, and the summary says so
-// instead of printing undefined numbers.
-func TestSensitivitySummaryOneStation(t *testing.T) {
+// One station with a score: there is no ranking to test, so the analysis
+// is skipped with the reason, rather than reporting intervals and undefined
+// correlations.
+func TestSensitivityOneStationSkipped(t *testing.T) {
 	r, _ := testrun.Load(t, map[string]string{
 		"s.toml": `[inputs]
 attributes = "stations.csv"
@@ -229,17 +230,16 @@ bootstrap = 10
 `,
 		"stations.csv": "station,name,latitude,longitude,forest_pct\nA,Alpha,40,-30,50\nB,Beta,41,-30,\n",
 	}, "s.toml")
-	text := strings.Join(report.SensitivitySummary(r), "\n")
-	for _, want := range []string{"Robustly in the top 1 (there in at least 95% of the samples): A (Alpha).",
-		"No station stays in the bottom 1 in 95% of the samples.", "need at least two stations with a score"} {
-		if !strings.Contains(text, want) {
-			t.Errorf("summary lacks %q:\n%s", want, text)
-		}
+	if r.Sensitivity != nil || len(report.SensitivitySummary(r)) != 0 {
+		t.Fatal("the sensitivity analysis ran on one scored station")
 	}
-	if strings.Contains(text, "NaN") || strings.Contains(text, "()") {
-		t.Errorf("undefined numbers in the summary:\n%s", text)
+	if want := "1 station has a score, so there is no ranking to test"; r.SensitivitySkipped != want {
+		t.Errorf("SensitivitySkipped = %q, want %q", r.SensitivitySkipped, want)
 	}
-	for _, write := range []func(io.Writer, *pipeline.Run) error{report.WriteSensitivity, report.WriteOAT, report.WriteSobol} {
-		readCSV(t, write, r)
+	if !slices.ContainsFunc(r.Warnings, func(e error) bool { return strings.Contains(e.Error(), "sensitivity: skipped") }) {
+		t.Errorf("no warning says the analysis was skipped: %v", r.Warnings)
+	}
+	if names := report.SensitivityOutputs(r); len(names) != 0 {
+		t.Errorf("outputs %v for a skipped analysis", names)
 	}
 }

@@ -19,7 +19,7 @@ func PrintRanking(w io.Writer, r *pipeline.Run, n int, all bool) {
 	if title == "" {
 		title = "Resilience ranking"
 	}
-	fmt.Fprintf(w, "%s: %d stations, score 0-100 (higher = more resilient), rank 1 = most resilient\n\n", title, total)
+	fmt.Fprintf(w, "%s: %s, score 0-100 (higher = more resilient), rank 1 = most resilient\n\n", title, plural(total, "station"))
 	nameW := 4
 	for _, s := range r.Attrs.Stations {
 		nameW = max(nameW, min(utf8.RuneCountInString(s.Name), 36))
@@ -53,7 +53,7 @@ func PrintRanking(w io.Writer, r *pipeline.Run, n int, all bool) {
 		for _, i := range res.Order[:n] {
 			row(i)
 		}
-		fmt.Fprintf(w, "%4s  (%d stations not shown; -all shows every station)\n", "...", total-2*n)
+		fmt.Fprintf(w, "%4s  (%s not shown; -all shows every station)\n", "...", plural(total-2*n, "station"))
 		for _, i := range res.Order[total-n:] {
 			row(i)
 		}
