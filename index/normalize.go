@@ -94,7 +94,9 @@ func Normalize(dst, x []float64, m Method) (out []float64, ok bool) {
 				dmax = math.Max(dmax, dist(v))
 			}
 		}
-		if dmax == 0 {
+		// Without spread every station is its own farthest, d/dmax = 1:
+		// that says nothing about the target, so every station gets 1.
+		if n < 2 || hi == lo || dmax == 0 {
 			ok = n > 1 && hi != lo
 			fill(func(float64) float64 { return 1 })
 			break

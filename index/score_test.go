@@ -219,6 +219,47 @@ func TestNormalizeTarget(t *testing.T) {
 	}
 }
 
+func TestNormalizeNoSpread(t *testing.T) {
+	// A column that does not tell stations apart gets the documented
+	// value of each method and ok = false (by definition, Normalize's
+	// contract); NaN stays NaN. Within the target's tolerance everyone
+	// scores 1 and, when the values differ, that is information (ok).
+	nan := math.NaN()
+	target := func(tol float64) Method { return Method{Norm: config.TargetN, Target: 50, Tolerance: tol} }
+	for _, tc := range []struct {
+		name string
+		x    []float64
+		m    Method
+		want float64
+		ok   bool
+	}{
+		{"minmax equal", []float64{3, 3, nan}, Method{Norm: config.MinMax}, 0.5, false},
+		{"rank equal", []float64{3, 3, nan}, Method{Norm: config.Rank}, 0.5, false},
+		{"zscore equal", []float64{3, 3, nan}, Method{Norm: config.ZScore}, 0, false},
+		{"minmax one station", []float64{nan, 7}, Method{Norm: config.MinMax, Better: config.Lower}, 0.5, false},
+		{"target equal, off target", []float64{70, 70, nan}, target(5), 1, false},
+		{"target one station, off target", []float64{nan, 15}, target(5), 1, false},
+		{"target equal, on target", []float64{52, 52}, target(5), 1, false},
+		{"target all within tolerance", []float64{46, 54, nan}, target(5), 1, true},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			got, ok := Normalize(nil, tc.x, tc.m)
+			if ok != tc.ok {
+				t.Errorf("ok = %v, want %v", ok, tc.ok)
+			}
+			for i, v := range got {
+				if want := tc.want; math.IsNaN(tc.x[i]) {
+					if !math.IsNaN(v) {
+						t.Errorf("x[%d] missing: got %v, want NaN", i, v)
+					}
+				} else if v != want {
+					t.Errorf("x[%d] = %v: got %v, want %v", i, tc.x[i], v, want)
+				}
+			}
+		})
+	}
+}
+
 func TestNormalizeRankWithTies(t *testing.T) {
 	// Mid-ranks of x = 1,2,2,3,4,5,5,5,6,7 are 1, 2.5, 2.5, 4, 5, 7, 7, 7,
 	// 9, 10 (scipy.stats.rankdata 'average', 1.10.1).
