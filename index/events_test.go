@@ -74,10 +74,13 @@ func TestReadEventsErrors(t *testing.T) {
 	}
 }
 
-// FuzzReadEvents: no input panics; an accepted table holds only valid rows.
+// FuzzReadEvents: no input panics; an accepted table holds only valid rows:
+// identifiers present, end not before start, a finite recovery time >= 0,
+// and departure and dryness finite or blank (NaN).
 func FuzzReadEvents(f *testing.F) {
 	f.Add(eventsHeader + "S1,HW-1,heatwave,water_temperature,2021-07-01,2021-07-09,3.2,12,true,0.4\n")
 	f.Add(eventsHeader + "S1,\"a,b\",k,v,2021-07-01,2021-07-01,0,0,0,\r\n")
+	f.Add(eventsHeader + "S2,DR-1,drought,water_temperature,2020-08-01,2020-09-30,,4,false,1\n")
 	f.Add("\uFEFF" + eventsHeader)
 	f.Fuzz(func(t *testing.T, text string) {
 		tab, errs := ReadEvents(strings.NewReader(text), "f.csv")
@@ -88,7 +91,9 @@ func FuzzReadEvents(f *testing.F) {
 			return
 		}
 		for _, e := range tab.Events {
-			if e.End < e.Start || e.RecoveryDays < 0 || math.IsNaN(e.PeakDeparture) || math.IsInf(e.Dryness, 0) || e.Station == "" {
+			if e.Station == "" || e.ID == "" || e.Kind == "" || e.Variable == "" || e.End < e.Start ||
+				!(e.RecoveryDays >= 0) || math.IsInf(e.RecoveryDays, 0) ||
+				math.IsInf(e.PeakDeparture, 0) || math.IsInf(e.Dryness, 0) {
 				t.Fatalf("invalid event accepted: %+v", e)
 			}
 		}
