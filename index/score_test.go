@@ -175,6 +175,20 @@ func TestMissingPolicies(t *testing.T) {
 	if _, err := Score(raw, spec); err == nil {
 		t.Error("error policy: want an error")
 	}
+
+	// Imputation takes the median of the station's own normalisation
+	// group: A, B and C form a group, whose observed recoveries 12 and 20
+	// give B 16 and so (20 − 16)/(20 − 12) = 0.5 within the group (by
+	// hand). The median over all stations, 20, would give 0.
+	spec.Missing = config.Impute
+	spec.Groups = []string{"g1", "g1", "g1", "g2"}
+	res, err = Score(raw, spec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := res.Normalized[1][1]; !scalar.EqualWithinAbs(got, 0.5, 1e-12) || !res.Imputed[1][1] {
+		t.Errorf("imputed within group: normalized %v, want 0.5", got)
+	}
 }
 
 func TestGroupScope(t *testing.T) {
