@@ -2,9 +2,9 @@ package index
 
 import (
 	"math"
-	"slices"
 
 	"rebound/config"
+	"rebound/index/rankstat"
 )
 
 // Method says how one indicator is normalised.
@@ -78,7 +78,13 @@ func Normalize(dst, x []float64, m Method) (out []float64, ok bool) {
 			fill(func(float64) float64 { return 0.5 })
 			break
 		}
-		r := midranks(x, sign)
+		// Mid-ranks of the oriented values, so that the most resilient
+		// ranks highest.
+		oriented := make([]float64, len(x))
+		for i, v := range x {
+			oriented[i] = sign * v
+		}
+		r := rankstat.MidRanks(nil, oriented)
 		for i, v := range x {
 			if math.IsNaN(v) {
 				dst[i] = v
@@ -115,41 +121,4 @@ func Normalize(dst, x []float64, m Method) (out []float64, ok bool) {
 		}
 	}
 	return dst, ok
-}
-
-// midranks returns the 1-based ranks of sign·x (ascending), with tied
-// values given the mean of their ranks. NaN entries get NaN.
-func midranks(x []float64, sign float64) []float64 {
-	idx := make([]int, 0, len(x))
-	for i, v := range x {
-		if !math.IsNaN(v) {
-			idx = append(idx, i)
-		}
-	}
-	slices.SortStableFunc(idx, func(a, b int) int {
-		va, vb := sign*x[a], sign*x[b]
-		switch {
-		case va < vb:
-			return -1
-		case va > vb:
-			return 1
-		}
-		return 0
-	})
-	r := make([]float64, len(x))
-	for i := range r {
-		r[i] = math.NaN()
-	}
-	for i := 0; i < len(idx); {
-		j := i
-		for j+1 < len(idx) && x[idx[j+1]] == x[idx[i]] {
-			j++
-		}
-		mid := float64(i+j)/2 + 1
-		for k := i; k <= j; k++ {
-			r[idx[k]] = mid
-		}
-		i = j + 1
-	}
-	return r
 }
