@@ -3,8 +3,8 @@
 // index, and strict number, boolean and date parsing.
 //
 // Positions follow encoding/csv: lines and columns are 1-based, and the
-// column counts characters (runes) from the start of the line to the start
-// of the field. For spreadsheets the position is the sheet and cell
+// column counts bytes, not characters, from the start of the line to the
+// start of the field. For spreadsheets the position is the sheet and cell
 // reference instead (Sheet1!C14).
 package tabular
 
