@@ -5,22 +5,31 @@ import (
 	"math"
 
 	"github.com/xuri/excelize/v2"
+
+	"rebound/cmd/rebound/internal/charts"
 )
 
-// Colours of the workbook (hex codes; the same lightness-varied palette as
-// the memo's charts): header fill #DCE6F1 with text #1D4E89, the colour
-// scale on scores from #F0A33A (lowest, amber) through #FFFFFF to #6CB4E4
-// (highest, light blue), chart series #1D4E89, #F0A33A, #6CB4E4, #A63A2B,
-// #6E6E6E, #C9A9DB.
+// Colours of the workbook, from the palette of the memo's charts (one
+// palette for both): header fill #DCE6F1 with text in ink (#1D4E89), the
+// colour scale on scores from amber (lowest) through white to sky blue
+// (highest), and chart series in the charts' categorical order.
 const (
 	headerFill = "#DCE6F1"
-	headerText = "#1D4E89"
-	scaleLow   = "#F0A33A"
 	scaleMid   = "#FFFFFF"
-	scaleHigh  = "#6CB4E4"
 )
 
-var seriesColours = []string{"#1D4E89", "#F0A33A", "#6CB4E4", "#A63A2B", "#6E6E6E", "#C9A9DB"}
+var (
+	headerText    = charts.Hex(charts.Ink)
+	scaleLow      = charts.Hex(charts.Amber)
+	scaleHigh     = charts.Hex(charts.Sky)
+	seriesColours = func() []string {
+		out := make([]string, len(charts.Categorical))
+		for i, c := range charts.Categorical {
+			out[i] = charts.Hex(c)
+		}
+		return out
+	}()
+)
 
 // Number formats, by what a column holds.
 const (

@@ -192,13 +192,6 @@ func (w *writer) sensitivity() {
 	}
 }
 
-func nz(x float64) float64 {
-	if math.IsNaN(x) {
-		return 0
-	}
-	return x
-}
-
 // charts adds the native charts, after every data sheet is written.
 func (w *writer) charts() {
 	if w.err != nil {
