@@ -68,7 +68,6 @@ var (
 	ErrNoRows    = errors.New("the file has a header row but no data rows")
 	ErrMissing   = errors.New("required column is missing")
 	ErrDuplicate = errors.New("duplicate")
-	ErrSyntax    = errors.New("syntax")
 	ErrRange     = errors.New("out of range")
 )
 
