@@ -219,6 +219,14 @@ func build(file, sheet string, rows []row) (*Table, []error) {
 			at(r, len(h.Names), "", fmt.Errorf("want %d fields like the header, got %d", len(h.Names), len(r.cells)))
 			continue
 		}
+		// A sheet leaves out the empty cells at the end of a row; a CSV
+		// row with fewer fields than the header has lost a separator,
+		// which would shift its values into the wrong columns.
+		if sheet == "" && len(r.cells) < len(h.Names) {
+			errs.Add(&tabular.ParseError{File: file, Line: r.line,
+				Err: fmt.Errorf("want %d fields like the header, got %d", len(h.Names), len(r.cells))})
+			continue
+		}
 		cell := func(j int) string {
 			if j < len(r.cells) {
 				return strings.TrimSpace(r.cells[j])

@@ -62,6 +62,7 @@ func TestReadCSVErrors(t *testing.T) {
 		{"NaN attribute", head + "A,a,1,2,NaN\n", []string{`s.csv:2:9: forest_pct: want a finite number, got "NaN"`}},
 		{"text in numeric column", head + "A,a,1,2,high\n", []string{`s.csv:2:9: forest_pct: want a finite number, got "high"`}},
 		{"too many fields", head + "A,a,1,2,3,4\n", []string{`s.csv:2:11: want 5 fields like the header, got 6`}},
+		{"too few fields", head + "A,a,1,2\n", []string{`s.csv:2: want 5 fields like the header, got 4`}},
 		{"blank station", head + ",a,1,2,3\n", []string{`s.csv:2:1: station: want a station identifier`}},
 		{"bad quoting", head + "A,\"a,1,2,3\n", []string{`s.csv:2:`}},
 		{"all problems listed", head + "A,a,95,2,x\nA,a,1,200,3\n", []string{"latitude", "forest_pct", "duplicate station", "longitude"}},
