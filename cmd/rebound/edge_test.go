@@ -23,8 +23,8 @@ func TestSmallStudies(t *testing.T) {
 		files    map[string]string
 		status   int
 		stdout   []string // each must appear
-		stderr   string
-		noOutput bool // nothing may be written
+		stderr   string   // must appear
+		noOutput bool     // nothing may be written
 	}{
 		{"one station: run skips the sensitivity analysis", []string{"run"},
 			map[string]string{"rebound.toml": smallConfig + sens, "stations.csv": oneStation, "events.csv": oneEvent}, 0,
@@ -42,6 +42,9 @@ func TestSmallStudies(t *testing.T) {
 		{"check counts one problem", []string{"check"},
 			map[string]string{"rebound.toml": smallConfig, "stations.csv": smallStations + "C,Gamma,95,-70,g\n", "events.csv": smallEvents}, 1,
 			nil, "1 problem found\n", true},
+		{"missing attribute table names its key", []string{"check"},
+			map[string]string{"rebound.toml": smallConfig, "events.csv": smallEvents}, 1,
+			nil, "rebound.toml: inputs.attributes: cannot open stations.csv: no such file or directory\n1 problem found\n", true},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			dir := t.TempDir()
@@ -55,8 +58,8 @@ func TestSmallStudies(t *testing.T) {
 					t.Errorf("stdout lacks %q:\n%s", w, stdout)
 				}
 			}
-			if !strings.HasSuffix(stderr, tc.stderr) {
-				t.Errorf("stderr %q, want it to end %q", stderr, tc.stderr)
+			if !strings.Contains(stderr, tc.stderr) {
+				t.Errorf("stderr %q, want it to hold %q", stderr, tc.stderr)
 			}
 			for _, bad := range []string{"NaN", "panic", "0 ranks", "1 stations"} {
 				if strings.Contains(stdout+stderr, bad) {

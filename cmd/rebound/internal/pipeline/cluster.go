@@ -261,6 +261,9 @@ func (r *Run) cluster() error {
 		return err
 	}
 	res, err := clusterTable(t, units, cl, r.Config.Seed, r.clusterProgress)
+	if err != nil && r.Config.File != "" {
+		return &config.Error{File: r.Config.File, Key: "clustering", Msg: err.Error()}
+	}
 	if err != nil {
 		return fmt.Errorf("clustering: %w", err)
 	}
@@ -410,7 +413,7 @@ func clusterTable(t *features.Table, units []string, cl *config.Clustering, seed
 	}
 	n := len(res.Stations)
 	if n < 3 {
-		msg := fmt.Sprintf("%d stations have every feature; clustering needs at least 3", n)
+		msg := fmt.Sprintf("%d of the stations have a value of every feature, fewer than the 3 that clustering needs", n)
 		if len(res.Excluded) > 0 {
 			e := res.Excluded[0]
 			msg += fmt.Sprintf(" (%d left out, the first, %s: %s)", len(res.Excluded), e.Station, e.Reason)

@@ -460,7 +460,7 @@ func TestClusterTooFew(t *testing.T) {
 	tb := &features.Table{Names: []string{"x"}, Stations: []string{"a", "b", "c"}, Data: []float64{1, 2, math.NaN()},
 		Excluded: []features.Exclusion{{Station: "z", Reason: "no daily series"}}}
 	_, err := clusterTable(tb, []string{""}, config.DefaultClustering(), 1, nil)
-	if err == nil || err.Error() != "2 stations have every feature; clustering needs at least 3 (2 left out, the first, z: no daily series)" {
+	if err == nil || err.Error() != "2 of the stations have a value of every feature, fewer than the 3 that clustering needs (2 left out, the first, z: no daily series)" {
 		t.Errorf("error %v", err)
 	}
 }

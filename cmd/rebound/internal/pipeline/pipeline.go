@@ -10,6 +10,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
 	"path/filepath"
 
@@ -132,6 +133,7 @@ func LoadInputs(path string, opt Options) (*Run, []error) {
 
 	attrPath := cfg.Path(cfg.Inputs.Attributes)
 	attrs, aerrs := attributes.Load(attrPath)
+	aerrs = keyed(cfg, "inputs.attributes", aerrs)
 	errs = append(errs, aerrs...)
 	if len(aerrs) == 0 {
 		r.Attrs = attrs
@@ -150,6 +152,7 @@ func LoadInputs(path string, opt Options) (*Run, []error) {
 	if cfg.Inputs.Events != "" {
 		evPath := cfg.Path(cfg.Inputs.Events)
 		events, eerrs := index.LoadEvents(evPath)
+		eerrs = keyed(cfg, "inputs.events", eerrs)
 		errs = append(errs, eerrs...)
 		if len(eerrs) == 0 {
 			r.Events = events
@@ -263,6 +266,20 @@ func (r *Run) CheckOutputs(paths []string) error {
 		}
 	}
 	return nil
+}
+
+// keyed names the configuration key of an input file that cannot be
+// opened, so that the message says which setting to fix:
+// "study.toml: inputs.attributes: cannot open stations.csv: no such file
+// or directory". Other errors already name the file, line and column.
+func keyed(cfg *config.Config, key string, errs []error) []error {
+	for i, err := range errs {
+		var pe *fs.PathError
+		if errors.As(err, &pe) && pe.Op == "open" {
+			errs[i] = &config.Error{File: cfg.File, Key: key, Msg: fmt.Sprintf("cannot open %s: %v", pe.Path, pe.Err)}
+		}
+	}
+	return errs
 }
 
 func digest(role, path string) (Input, error) {

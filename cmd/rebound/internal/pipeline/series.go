@@ -141,7 +141,7 @@ func (r *Run) passSeries(maxErrors int) []error {
 			path := cfg.Path(cfg.Inputs.UserEvents)
 			f, err := os.Open(path)
 			if err != nil {
-				return []error{err}
+				return keyed(cfg, "inputs.user_events", []error{err})
 			}
 			users, err = events.ReadUserEvents(f, path)
 			f.Close()
@@ -231,11 +231,11 @@ func (r *Run) passSeries(maxErrors int) []error {
 		}
 	}
 	opt := seriesOptions(cfg, maxErrors)
-	for _, p := range cfg.Inputs.Series {
+	for k, p := range cfg.Inputs.Series {
 		path := cfg.Path(p)
 		f, err := os.Open(path)
 		if err != nil {
-			errs = append(errs, err)
+			errs = append(errs, keyed(cfg, fmt.Sprintf("inputs.series[%d]", k+1), []error{err})...)
 			continue
 		}
 		s, err := series.Map(f, path, opt, 0, work, emit)
@@ -258,12 +258,12 @@ func (r *Run) passSeries(maxErrors int) []error {
 	if len(cfg.Inputs.Wide) > 0 {
 		merged := map[string]*series.Station{}
 		var order []string
-		for _, w := range cfg.Inputs.Wide {
+		for k, w := range cfg.Inputs.Wide {
 			path := cfg.Path(w.Path)
 			v, _ := cfg.Variable(w.Variable)
 			f, err := os.Open(path)
 			if err != nil {
-				errs = append(errs, err)
+				errs = append(errs, keyed(cfg, fmt.Sprintf("inputs.wide[%d].path", k+1), []error{err})...)
 				continue
 			}
 			sv := series.Var{Name: v.Name, Units: v.Units}
