@@ -173,6 +173,17 @@ func TestClimatologyShortReference(t *testing.T) {
 			t.Errorf("%+v: %d years, want %d", tc.c, cl.Years, tc.years)
 		}
 	}
+	// A year with exactly YearFraction of its days counts: 183 of the 366
+	// days of 2004 are half of them (by hand).
+	leap := make([]float64, 366+365)
+	for i := range leap {
+		if i >= 183 && i < 366 {
+			leap[i] = math.NaN()
+		}
+	}
+	if cl, err := (Climate{MinYears: 2}).Compute(leap, calendar.New(2004, 1, 1)); err != nil || cl.Years != 2 {
+		t.Errorf("half of 2004 present: %v, want 2 years", err)
+	}
 }
 
 func TestClimatologyPartialYear(t *testing.T) {

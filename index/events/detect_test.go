@@ -114,6 +114,14 @@ func TestDroughtsLowflow40(t *testing.T) {
 			}
 		})
 	}
+	// By hand: deficits 12 (three days at 6) and 6 (three days at 8)
+	// below 10; with minFrac 0.5 the second is exactly half the largest,
+	// which is not below it, so it stays.
+	q2 := []float64{6, 6, 6, 10, 10, 10, 10, 10, 8, 8, 8}
+	want2 := []Drought{{Span: Span{0, 2}, Deficit: 12, Min: 0, MinFlow: 6}, {Span: Span{8, 10}, Deficit: 6, Min: 8, MinFlow: 8}}
+	if got := Droughts(q2, filled(len(q2), 10), 0, 3, 0.5); !slices.Equal(got, want2) {
+		t.Errorf("deficit equal to the fraction: got %+v, want %+v", got, want2)
+	}
 	// 23.5 m³/s·d is 2,030,400 m³ (× 86 400 s).
 	if v := Droughts(q, thr, 2, 3, 0)[0].Deficit * 86400; !close(v, 2030400, 1e-9) {
 		t.Errorf("deficit volume %v m³, want 2030400", v)
@@ -135,6 +143,10 @@ func TestFloods(t *testing.T) {
 		// The flow between stays at 10 ≥ 0.75 × 12 = 9: one event.
 		{"peaks 8 days apart, shallow trough", []float64{5, 12, 10, 10, 10, 10, 10, 10, 10, 13, 5},
 			[]Flood{{Span{1, 9}, 9, 13}}},
+		// The flow between drops to 10, below 0.75 × 30 but not below
+		// 0.75 × 12 = 9, the smaller peak's trough: one event.
+		{"trough below the larger peak only", []float64{5, 30, 10, 10, 10, 10, 10, 10, 10, 12, 5},
+			[]Flood{{Span{1, 9}, 1, 30}}},
 		{"missing days between", []float64{5, 30, nan, nan, nan, nan, nan, nan, nan, 25, 5},
 			[]Flood{{Span{1, 1}, 1, 30}, {Span{9, 9}, 9, 25}}},
 		{"none", []float64{5, 10, nan}, nil},
