@@ -396,4 +396,14 @@ func TestLagOfMaxCorrelation(t *testing.T) {
 	if lag, _ := LagOfMaxCorrelation([]float64{nan, 1}, []float64{1, nan}, 2); lag != -1 {
 		t.Errorf("no pairs: lag %d, want -1", lag)
 	}
+	// A series that alternates 1, −1 correlates exactly 1 with itself at
+	// lags 0 and 2 (analytic, and exact in floating point: the sums are
+	// integers): the tie goes to the smaller lag.
+	alt := make([]float64, 20)
+	for i := range alt {
+		alt[i] = float64(1 - 2*(i%2))
+	}
+	if lag, r := LagOfMaxCorrelation(alt, alt, 3); lag != 0 || r != 1 {
+		t.Errorf("tie at lags 0 and 2: lag %d r %v, want 0, 1", lag, r)
+	}
 }
