@@ -133,21 +133,18 @@ func writeOutputs(r *pipeline.Run, dir string) (names []string, err error) {
 	return names, nil
 }
 
-// writeRendered writes rendered outputs into dir, each atomically, after
-// checking that none would overwrite an input.
+// writeRendered writes rendered outputs into dir, after checking that none
+// would overwrite an input. Every file is written to a temporary file
+// first and renamed into place only when all of them have been written.
 func writeRendered(r *pipeline.Run, dir string, outs []output) error {
+	files := make([]report.File, len(outs))
 	paths := make([]string, len(outs))
 	for i, o := range outs {
 		paths[i] = filepath.Join(dir, filepath.FromSlash(o.Name))
+		files[i] = report.File{Path: paths[i], Data: o.Data}
 	}
 	if err := r.CheckOutputs(paths); err != nil {
 		return err
 	}
-	for i, o := range outs {
-		data := o.Data
-		if err := report.WriteFile(paths[i], func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
-			return err
-		}
-	}
-	return nil
+	return report.WriteFiles(files)
 }

@@ -69,33 +69,45 @@ const usage = `rebound ranks river stations by the resilience of their water qua
 heat waves, droughts and floods.
 
 Usage:
-  rebound run -config FILE [-out DIR] [-seed N] [-all]   score and rank, write outputs (-quiet: no progress)
+  rebound run -config FILE [-out DIR] [-seed N] [-all] [-quiet]
+                                                         score and rank, write every output
   rebound check -config FILE                             validate the configuration and inputs
   rebound events -config FILE [-out DIR] [-quiet]        derive events and criteria from daily series
-  rebound sensitivity -config FILE [-out DIR] [-seed N] [-samples N]
+  rebound sensitivity -config FILE [-out DIR] [-seed N] [-samples N] [-quiet]
                                                          how robust the ranking is to the weights
   rebound cluster -config FILE [-k N] [-method M] [-out DIR]
                   [-features FILE] [-scale S] [-quiet]   cluster stations by features of their series
   rebound init [-o FILE] [-force]                        write a commented configuration template
-  rebound demo [-out DIR] [-force]                       write an invented demo region and run it
+  rebound demo [-out DIR] [-force] [-quiet]              write an invented demo region and run it
   rebound version                                        print the version
   rebound help [command]                                 show help
 
 Flags may be written -flag or --flag. Exit status: 0 ok, 1 bad input or
-failed check, 2 usage error.
+failed check, 2 usage error. The ranking is a screening aid, not a
+regulatory determination.
 `
 
 var helpText = map[string]string{
-	"run": `rebound run -config FILE [-out DIR] [-seed N] [-all]
+	"run": `rebound run -config FILE [-out DIR] [-seed N] [-all] [-quiet]
 
 Reads the configuration and every input it names, derives the indicators,
 scores and ranks every station, prints the ranking (the top and bottom
-output.print stations; -all prints every station) and writes into DIR
-(default: output.dir beside the configuration):
-  ranking.csv     rank, station, name, group, score, events, position, flags
-  indicators.csv  raw, normalised value, weight and contribution per station and indicator
-  run.json        manifest: versions, resolved configuration, SHA-256 of every
-                  input, row counts, weights used, every warning, the seed
+output.print stations) and writes into DIR:
+  ranking.csv       rank, station, name, group, score, events, latitude,
+                    longitude, flags (and the rank interval and cluster
+                    when computed)
+  indicators.csv    raw, normalised value, weight and contribution per
+                    station and indicator
+  events.csv, criteria.csv
+                    the derived events and the criteria performance, when
+                    events are derived from daily series
+  rebound.xlsx      the workbook: summary, ranking, indicators, weights,
+                    events, clusters, sensitivity, method, inputs, warnings
+  memo.md, figures/*.png
+                    the planning memo and its charts
+  stations.geojson  the stations as a map layer, in rank order
+  run.json          manifest: versions, resolved configuration, SHA-256 of
+                    every input, row counts, weights used, every warning
 With a [clustering] section it also clusters the stations (see rebound help
 cluster): the ranking gains a cluster column and the clustering files are
 written too.
@@ -103,7 +115,13 @@ With a [sensitivity] section it also runs the sensitivity analysis (see
 rebound help sensitivity): the ranking gains each station's rank interval,
 the summary of the analysis is printed, and its files are written too.
 Nothing is written when an input is bad; outputs replace earlier ones
-atomically, and an output path equal to an input is refused.
+only once every one of them is written, and an output path equal to an
+input is refused.
+  -out DIR   output folder (default: output.dir beside the configuration)
+  -seed N    seed for every random choice (default: the configuration's)
+  -all       print every station, not only the top and bottom
+  -quiet     no progress on stderr
+The results are a screening aid, not a regulatory determination.
 `,
 	"sensitivity": `rebound sensitivity -config FILE [-out DIR] [-seed N] [-samples N] [-quiet]
 
@@ -177,13 +195,14 @@ stability, the agreement between methods and the stations left out.
 Writes a fully commented configuration template to FILE (default
 rebound.toml). An existing file is not overwritten unless -force is given.
 `,
-	"demo": `rebound demo [-out DIR] [-force]
+	"demo": `rebound demo [-out DIR] [-force] [-quiet]
 
-Writes an invented demonstration region (stations, events, configuration)
-into DIR (default rebound-demo) and runs the whole pipeline on it, writing
-outputs into DIR/out. The data are generated from a fixed seed, so every
-run writes the same files. Files that exist with other content (say, an
-edited configuration) are not overwritten unless -force is given.
+Writes an invented demonstration region (stations, fifteen years of daily
+records, user events, configuration) into DIR (default rebound-demo) and
+runs the whole pipeline on it, writing outputs into DIR/out. The data are
+generated from a fixed seed, so every run writes the same files. Files that
+exist with other content (say, an edited configuration) are not
+overwritten unless -force is given; -quiet silences the progress on stderr.
 `,
 }
 
@@ -222,7 +241,19 @@ func parse(fs *flag.FlagSet, args []string, stdout io.Writer) (help bool, err er
 	return false, nil
 }
 
-// report writes each problem on its own line and returns errReported.
+// parseSeed reads a -seed flag: nil when not given.
+func parseSeed(cmd, s string) (*uint64, error) {
+	if s == "" {
+		return nil, nil
+	}
+	n, err := strconv.ParseUint(s, 10, 64)
+	if err != nil {
+		return nil, usageError{fmt.Sprintf("%s: -seed: want a non-negative integer, got %q", cmd, s)}
+	}
+	return &n, nil
+}
+
+// reportProblems writes each problem on its own line and returns errReported.
 func reportProblems(stderr io.Writer, errs []error) error {
 	for _, e := range errs {
 		fmt.Fprintln(stderr, e.Error())
@@ -243,13 +274,9 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 	if *cfgPath == "" {
 		return usageError{"run: -config FILE is required"}
 	}
-	var seedOverride *uint64
-	if *seed != "" {
-		s, err := strconv.ParseUint(*seed, 10, 64)
-		if err != nil {
-			return usageError{fmt.Sprintf("run: -seed: want a non-negative integer, got %q", *seed)}
-		}
-		seedOverride = &s
+	seedOverride, err := parseSeed("run", *seed)
+	if err != nil {
+		return err
 	}
 	return runPipeline(*cfgPath, *out, seedOverride, *all, *quiet, stdout, stderr)
 }
@@ -366,11 +393,12 @@ func cmdDemo(args []string, stdout, stderr io.Writer) error {
 			return fmt.Errorf("%s exists and differs from the demo's version (edited?); not overwriting it (use -force, or another -out)", p)
 		}
 	}
+	var set []report.File
 	for _, f := range files {
-		data := f.Data
-		if err := report.WriteFile(filepath.Join(*out, f.Name), func(w io.Writer) error { _, err := w.Write(data); return err }); err != nil {
-			return err
-		}
+		set = append(set, report.File{Path: filepath.Join(*out, f.Name), Data: f.Data})
+	}
+	if err := report.WriteFiles(set); err != nil {
+		return err
 	}
 	fmt.Fprintf(stdout, "Wrote the demo region (%s) to %s\n\n", demo.Region, *out)
 	return runPipeline(filepath.Join(*out, demo.ConfigName), "", nil, false, *quiet, stdout, stderr)

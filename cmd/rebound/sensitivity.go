@@ -28,13 +28,9 @@ func cmdSensitivity(args []string, stdout, stderr io.Writer) error {
 	if *cfgPath == "" {
 		return usageError{"sensitivity: -config FILE is required"}
 	}
-	var seedOverride *uint64
-	if *seed != "" {
-		s, err := strconv.ParseUint(*seed, 10, 64)
-		if err != nil {
-			return usageError{fmt.Sprintf("sensitivity: -seed: want a non-negative integer, got %q", *seed)}
-		}
-		seedOverride = &s
+	seedOverride, err := parseSeed("sensitivity", *seed)
+	if err != nil {
+		return err
 	}
 	nSamples := 0
 	if *samples != "" {

@@ -6,6 +6,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 )
 
@@ -62,5 +63,41 @@ func TestWriteFileAtomic(t *testing.T) {
 	}
 	if b, _ := os.ReadFile(path); string(b) != "second\n" {
 		t.Errorf("replaced file: %q", b)
+	}
+}
+
+// WriteFiles replaces a whole set or none of it: when one file cannot be
+// written (here its folder is a file), the others keep their old content
+// and no temporary file is left.
+func TestWriteFilesAllOrNone(t *testing.T) {
+	dir := t.TempDir()
+	a, b := filepath.Join(dir, "a.csv"), filepath.Join(dir, "figures", "b.png")
+	if err := WriteFiles([]File{{a, []byte("old a")}, {b, []byte("old b")}}); err != nil {
+		t.Fatal(err)
+	}
+	blocked := filepath.Join(dir, "blocked")
+	os.WriteFile(blocked, nil, 0o644)
+	err := WriteFiles([]File{{a, []byte("new a")}, {b, []byte("new b")}, {filepath.Join(blocked, "c.csv"), []byte("c")}})
+	if err == nil {
+		t.Fatal("want an error for a path under a file")
+	}
+	for path, want := range map[string]string{a: "old a", b: "old b"} {
+		if got, _ := os.ReadFile(path); string(got) != want {
+			t.Errorf("%s: %q after a failed set, want %q", path, got, want)
+		}
+	}
+	for _, d := range []string{dir, filepath.Dir(b)} {
+		entries, _ := os.ReadDir(d)
+		for _, e := range entries {
+			if strings.HasPrefix(e.Name(), ".") {
+				t.Errorf("temporary file left behind: %s", e.Name())
+			}
+		}
+	}
+	if err := WriteFiles([]File{{a, []byte("new a")}, {b, []byte("new b")}}); err != nil {
+		t.Fatal(err)
+	}
+	if got, _ := os.ReadFile(b); string(got) != "new b" {
+		t.Errorf("%s: %q", b, got)
 	}
 }
