@@ -216,7 +216,13 @@ func (w *writer) summary() {
 	kv("Aggregation", aggText(r.Config))
 	kv("Missing values", missingText(r.Config.Missing.Policy))
 	if sv := w.e.Sensitivity; sv != nil {
-		kv("Weight sensitivity", fmt.Sprintf("%d weight samples; rank interval = %s; mean Spearman correlation with the base ranking %.3f", sv.Samples, sv.Interval, sv.Spearman))
+		agree := ""
+		if !math.IsNaN(sv.Spearman) {
+			agree = fmt.Sprintf("; mean Spearman correlation with the base ranking %.3f", sv.Spearman)
+		}
+		kv("Weight sensitivity", fmt.Sprintf("%d weight samples; rank interval = %s%s", sv.Samples, sv.Interval, agree))
+	} else if r.SensitivitySkipped != "" {
+		kv("Weight sensitivity", "skipped: "+r.SensitivitySkipped)
 	} else {
 		kv("Weight sensitivity", "not run")
 	}
