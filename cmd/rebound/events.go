@@ -3,8 +3,10 @@ package main
 import (
 	"fmt"
 	"io"
+	"maps"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 
 	"rebound/cmd/rebound/internal/pipeline"
@@ -57,7 +59,7 @@ func cmdEvents(args []string, stdout, stderr io.Writer) error {
 		}
 	}
 	var parts []string
-	for _, k := range sortedKeys(kinds) {
+	for _, k := range slices.Sorted(maps.Keys(kinds)) {
 		parts = append(parts, fmt.Sprintf("%d %s", kinds[k], k))
 	}
 	fmt.Fprintf(stdout, "%s read; %s at %s", count(len(r.Stations), "station"), count(rows, "event row"), count(stations, "station"))

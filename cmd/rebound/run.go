@@ -8,7 +8,6 @@ import (
 	"io"
 	"os"
 	"path/filepath"
-	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -402,13 +401,4 @@ func cmdDemo(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stdout, "Wrote the demo region (%s) to %s\n\n", demo.Region, *out)
 	return runPipeline(filepath.Join(*out, demo.ConfigName), "", nil, false, *quiet, stdout, stderr)
-}
-
-func sortedKeys[V any](m map[string]V) []string {
-	keys := make([]string, 0, len(m))
-	for k := range m {
-		keys = append(keys, k)
-	}
-	slices.Sort(keys)
-	return keys
 }

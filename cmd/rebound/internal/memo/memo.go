@@ -2,6 +2,7 @@ package memo
 
 import (
 	"fmt"
+	"maps"
 	"math"
 	"slices"
 	"strings"
@@ -134,7 +135,7 @@ func (m *writer) data() error {
 			first, last = min(first, e.Start), max(last, e.End)
 		}
 		var parts []string
-		for _, k := range sortedKeys(ids) {
+		for _, k := range slices.Sorted(maps.Keys(ids)) {
 			parts = append(parts, fmt.Sprintf("%d %s", len(ids[k]), plural(len(ids[k]), kindWord(k))))
 		}
 		source := "the events table " + code(base(ev.File))

@@ -2,6 +2,7 @@ package memo
 
 import (
 	"fmt"
+	"maps"
 	"path/filepath"
 	"slices"
 	"strings"
@@ -123,16 +124,7 @@ func eventKinds(r *pipeline.Run) []string {
 	for _, e := range r.Events.Events {
 		seen[e.Kind] = true
 	}
-	return sortedKeys(seen)
-}
-
-func sortedKeys[V any](m map[string]V) []string {
-	keys := make([]string, 0, len(m))
-	for k := range m {
-		keys = append(keys, k)
-	}
-	slices.Sort(keys)
-	return keys
+	return slices.Sorted(maps.Keys(seen))
 }
 
 func normWords(cfg *config.Config) string {
@@ -194,7 +186,7 @@ func flagWords(flags [][]string) string {
 		"no_score":   "`no_score` no indicator has a value",
 	}
 	var parts []string
-	for _, k := range sortedKeys(seen) {
+	for _, k := range slices.Sorted(maps.Keys(seen)) {
 		if s, ok := meaning[k]; ok {
 			parts = append(parts, s)
 		} else {

@@ -3,6 +3,7 @@ package workbook
 import (
 	"cmp"
 	"fmt"
+	"maps"
 	"math"
 	"slices"
 	"strings"
@@ -587,7 +588,7 @@ func (w *writer) inputs() {
 		w.style(s, cell(1, row), cell(1, row), w.bold)
 		row++
 		w.str(s, cell(1, row), fmt.Sprintf("%d rows of %d stations read from %d files", sum.Rows, sum.Stations, len(sum.Files)))
-		for _, v := range sortedKeys(sum.Skipped) {
+		for _, v := range slices.Sorted(maps.Keys(sum.Skipped)) {
 			row++
 			w.str(s, cell(1, row), fmt.Sprintf("%d rows of variable %q skipped: no [[variable]] table names it", sum.Skipped[v], v))
 		}
@@ -596,15 +597,6 @@ func (w *writer) inputs() {
 			w.str(s, cell(1, row), fmt.Sprintf("station %s is in the daily records but not in the attribute table; skipped", id))
 		}
 	}
-}
-
-func sortedKeys[V any](m map[string]V) []string {
-	keys := make([]string, 0, len(m))
-	for k := range m {
-		keys = append(keys, k)
-	}
-	slices.Sort(keys)
-	return keys
 }
 
 func (w *writer) warnings() {

@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"html"
 	"io"
+	"maps"
 	"math"
 	"os"
 	"path/filepath"
@@ -319,7 +320,7 @@ func dump(t *testing.T, data []byte) string {
 		}
 	}
 	charts := chartRefs(t, data)
-	for _, name := range sortedKeys(charts) {
+	for _, name := range slices.Sorted(maps.Keys(charts)) {
 		fmt.Fprintf(&b, "== %s\n%s\n", name, strings.Join(charts[name], "\n"))
 	}
 	return b.String()
