@@ -422,8 +422,12 @@ func SensitivitySummary(r *pipeline.Run) []string {
 		}
 	}
 	group := func(list []int, where string, p func(sensitivity.StationRanks) float64) string {
+		place := fmt.Sprintf("in the %s %d", where, top)
+		if top == 1 {
+			place = map[string]string{"top": "first", "bottom": "last"}[where]
+		}
 		if len(list) > 0 {
-			return fmt.Sprintf("Robustly in the %s %d (there in at least 95%% of the samples): %s.", where, top, stationList(r, list, nil))
+			return fmt.Sprintf("Robustly %s (there in at least 95%% of the samples): %s.", place, stationList(r, list, nil))
 		}
 		best := -1
 		for _, i := range r.Result.Order {
@@ -431,7 +435,7 @@ func SensitivitySummary(r *pipeline.Run) []string {
 				best = i
 			}
 		}
-		msg := fmt.Sprintf("No station stays in the %s %d in 95%% of the samples", where, top)
+		msg := fmt.Sprintf("No station stays %s in 95%% of the samples", place)
 		if best >= 0 && p(mc.Stations[best]) > 0 {
 			msg += fmt.Sprintf("; the surest is %s, there in %.0f%% of them", stationName(r, best), 100*p(mc.Stations[best]))
 		}
