@@ -59,7 +59,7 @@ func TestSensitivityCommand(t *testing.T) {
 	summary := strings.Join(strings.Fields(stdout), " ") // unwrapped
 	for _, want := range []string{
 		"The 6 stations were ranked again under 300 sets of weights", // -samples overrides samples = 500
-		"Robustly in the top 1 (there in at least 95% of the samples): TOP (Top).",
+		"Robustly first (there in at least 95% of the samples): TOP (Top).",
 		"The weights that matter most for the ranking",
 		"Wrote sensitivity.csv, sensitivity_oat.csv, sensitivity_structural.csv, sensitivity_sobol.csv to a",
 	} {
