@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"sort"
 
 	"gonum.org/v1/gonum/mat"
@@ -293,7 +294,7 @@ func (s *kmState) seed(rng *rand.Rand, trials int) (repeats int) {
 		if pot <= 0 {
 			// Every row with weight lies on a chosen centre.
 			next := 0
-			for slicesContains(chosen, next) || s.weight(next) == 0 {
+			for slices.Contains(chosen, next) || s.weight(next) == 0 {
 				next++
 				if next == n {
 					next = chosen[0]
@@ -323,15 +324,6 @@ func (s *kmState) seed(rng *rand.Rand, trials int) (repeats int) {
 		s.near, s.tmp = s.tmp, s.near
 	}
 	return repeats
-}
-
-func slicesContains(s []int, v int) bool {
-	for _, e := range s {
-		if e == v {
-			return true
-		}
-	}
-	return false
 }
 
 // draw returns a row drawn with probability proportional to f(row).
