@@ -8,6 +8,7 @@ import (
 	"strings"
 	"unicode"
 
+	"rebound/attributes/tabular"
 	"rebound/index/calendar"
 )
 
@@ -42,14 +43,14 @@ func (e *ParseError) Unwrap() error { return e.Err }
 var userHeader = []string{"kind", "start", "end", "station"}
 
 // ReadUserEvents reads a CSV list of user events with the header
-// kind,start,end or kind,start,end,station. Dates are ISO 8601
-// (YYYY-MM-DD), end >= start; an empty or missing station means every
-// station. Lines starting with '#' are comments and spaces around fields
-// are ignored. name is the file name used in errors, which are *ParseError
+// kind,start,end or kind,start,end,station, in UTF-8 with or without a
+// byte-order mark. Dates are ISO 8601 (YYYY-MM-DD), end >= start; an empty
+// or missing station means every station. Lines starting with '#' are
+// comments and spaces around fields are ignored. name is the file name used in errors, which are *ParseError
 // of the form "events.csv:4:10: end: want a date >= start 2019-07-03, got
 // "2019-07-01"".
 func ReadUserEvents(r io.Reader, name string) ([]UserEvent, error) {
-	cr := csv.NewReader(r)
+	cr := csv.NewReader(tabular.StripBOM(r))
 	cr.Comment = '#'
 	cr.FieldsPerRecord = -1
 	cr.ReuseRecord = true

@@ -30,6 +30,12 @@ func TestReadUserEvents(t *testing.T) {
 			in:   "Kind,Start,End\r\nspill,2019-07-03,2019-07-05\r\n",
 			want: []UserEvent{{Kind: "spill", Start: date("2019-07-03"), End: date("2019-07-05")}},
 		},
+		{
+			// A spreadsheet's "CSV UTF-8" begins with a byte-order mark.
+			name: "byte-order mark",
+			in:   "\uFEFFkind,start,end\r\nspill,2019-07-03,2019-07-05\r\n",
+			want: []UserEvent{{Kind: "spill", Start: date("2019-07-03"), End: date("2019-07-05")}},
+		},
 		{name: "header only", in: "kind,start,end\n"},
 		{name: "empty", in: "", err: `ev.csv:1:1: want a header kind,start,end[,station], got an empty file`},
 		{name: "bad header", in: "kind,begin,end\n", err: `ev.csv:1:6: header column 2: want "start", got "begin"`},
