@@ -234,7 +234,7 @@ const templateEvents = `
 # inputs.series names the records). Defaults are shown.
 [events]
 # Reference period of the day-of-year normals (0 = first/last year of record)
-# and the fewest reference years with data (more than half the days).
+# and the fewest reference years with data (at least half the days).
 reference_first_year = 0
 reference_last_year = 0
 min_years = 5
