@@ -158,13 +158,21 @@ func (c *Config) validateEvents(bad reportFunc) {
 	if e.MinYears < 1 {
 		bad("events.min_years", "want >= 1, got %d", e.MinYears)
 	}
-	if e.HalfWindow < 0 {
-		bad("events.half_window_days", "want >= 0, got %d", e.HalfWindow)
+	// The ranges of events.Climate, which takes a half-width of 0 for its
+	// default of 5 days.
+	if e.HalfWindow < 1 || e.HalfWindow > 60 {
+		bad("events.half_window_days", "want days from 1 to 60, got %d", e.HalfWindow)
 	}
-	if e.SmoothDays < 1 || e.SmoothDays%2 == 0 {
-		bad("events.smooth_days", "want an odd number of days >= 1, got %d", e.SmoothDays)
+	if e.SmoothDays < 1 || e.SmoothDays > 365 || e.SmoothDays%2 == 0 {
+		bad("events.smooth_days", "want an odd number of days from 1 to 365, got %d", e.SmoothDays)
 	}
-	if e.ReferenceFirstYear != 0 && e.ReferenceLastYear != 0 && e.ReferenceLastYear < e.ReferenceFirstYear {
+	if e.ReferenceFirstYear < 0 {
+		bad("events.reference_first_year", "want a year, or 0 for the first year of record, got %d", e.ReferenceFirstYear)
+	}
+	if e.ReferenceLastYear < 0 {
+		bad("events.reference_last_year", "want a year, or 0 for the last year of record, got %d", e.ReferenceLastYear)
+	}
+	if e.ReferenceFirstYear > 0 && e.ReferenceLastYear > 0 && e.ReferenceLastYear < e.ReferenceFirstYear {
 		bad("events.reference_last_year", "%d is before reference_first_year %d", e.ReferenceLastYear, e.ReferenceFirstYear)
 	}
 	pct := func(key string, p float64) {

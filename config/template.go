@@ -238,9 +238,9 @@ const templateEvents = `
 reference_first_year = 0
 reference_last_year = 0
 min_years = 5
-# Normals pool every value within +/- half_window_days of each calendar day
-# (an 11-day window for 5), then a smooth_days moving average (Hobday et al.
-# 2016). Departure = observed - normal.
+# Normals pool every value within +/- half_window_days (1 to 60) of each
+# calendar day (an 11-day window for 5), then a smooth_days moving average
+# (odd, 1 = none; Hobday et al. 2016). Departure = observed - normal.
 half_window_days = 5
 smooth_days = 31
 # Count record coverage by October-September water years.
