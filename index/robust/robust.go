@@ -205,8 +205,8 @@ func lerp(a, b, t float64) float64 {
 
 // TheilSen returns the Theil–Sen estimate of the slope of y on x: the
 // median of the slopes (y_j − y_i)/(x_j − x_i) over all pairs i < j with
-// x_i ≠ x_j (see PairwiseSlopes). ok is false when fewer than one such
-// pair exists. It uses O(n²) memory and time, which suits the tens of
+// x_i ≠ x_j (see PairwiseSlopes). ok is false, and the slope NaN, when no
+// such pair exists. It uses O(n²) memory and time, which suits the tens of
 // events per station it serves. It panics if the slices differ in length.
 func TheilSen(x, y []float64) (slope float64, ok bool) {
 	slopes := PairwiseSlopes(nil, x, y)
