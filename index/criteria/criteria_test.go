@@ -251,6 +251,21 @@ func TestEvaluate(t *testing.T) {
 	}
 }
 
+func TestEvaluateMaxTie(t *testing.T) {
+	// By hand: eight equal daily maxima give two equal 7-day values, on
+	// days 7 and 8; the first is reported.
+	start := calendar.New(2021, 7, 1)
+	x := []float64{15, 15, 15, 15, 15, 15, 15, 15}
+	s := &series.Station{ID: "X1", Start: start, Days: len(x), Vars: map[string][]float64{"water_temperature_max": x}}
+	got, err := Evaluate(s, DefaultOptions())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got.Max != 15 || got.MaxDate != start+6 {
+		t.Errorf("max %v on %v, want 15 on %v", got.Max, got.MaxDate, start+6)
+	}
+}
+
 func nanSlice(n int) []float64 {
 	x := make([]float64, n)
 	for i := range x {
