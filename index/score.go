@@ -18,7 +18,8 @@ type Spec struct {
 	Weights     []float64 // one per indicator, summing to 1
 	Aggregation config.AggMethod
 	// Floor keeps zeros out of the geometric product (see
-	// config.Aggregation.Floor).
+	// config.Aggregation.Floor); 0 means sensitivity.DefaultFloor, as in
+	// sensitivity.Composite, which computes the composites.
 	Floor   float64
 	Missing config.MissingPolicy
 	// Groups assigns each station to a normalisation group; nil puts every
@@ -183,6 +184,10 @@ func Score(raw *Raw, spec Spec) (*Result, error) {
 
 	// Aggregation: the composites, then each indicator's contribution.
 	geo := spec.Aggregation == config.Geometric
+	floor := spec.Floor
+	if floor == 0 {
+		floor = sensitivity.DefaultFloor
+	}
 	composite, err := res.Model().Composites()
 	if err != nil {
 		return nil, err
@@ -210,7 +215,7 @@ func Score(raw *Raw, spec Spec) (*Result, error) {
 			}
 			w := spec.Weights[j] / wsum
 			if geo {
-				res.Contribution[i][j] = math.Pow(spec.Floor+(1-spec.Floor)*v, w)
+				res.Contribution[i][j] = math.Pow(floor+(1-floor)*v, w)
 			} else {
 				res.Contribution[i][j] = w * v
 			}
@@ -245,7 +250,7 @@ func Score(raw *Raw, spec Spec) (*Result, error) {
 		}
 	case geo:
 		for i, c := range res.Composite {
-			res.Score[i] = 100 * (c - spec.Floor) / (1 - spec.Floor)
+			res.Score[i] = 100 * (c - floor) / (1 - floor)
 		}
 	default:
 		for i, c := range res.Composite {

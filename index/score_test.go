@@ -134,6 +134,20 @@ func TestScoreScaling(t *testing.T) {
 			t.Errorf("factors %v do not multiply to %v", res.Contribution[i], res.Composite[i])
 		}
 	}
+	// A zero Floor means the default 0.1 throughout: composite, factors
+	// and score (Spec's contract).
+	zero := handbookSpec(config.MinMax, config.Geometric)
+	zero.Floor = 0
+	res0, err := Score(handbook(), zero)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range res.Score {
+		if res0.Composite[i] != res.Composite[i] || res0.Score[i] != res.Score[i] || !floats.Equal(res0.Contribution[i], res.Contribution[i]) {
+			t.Errorf("station %d with Floor 0: composite %v score %v factors %v; with 0.1: %v %v %v", i,
+				res0.Composite[i], res0.Score[i], res0.Contribution[i], res.Composite[i], res.Score[i], res.Contribution[i])
+		}
+	}
 	// z-scores: rescaled over the stations, best 100, worst 0.
 	res, _ = Score(handbook(), handbookSpec(config.ZScore, config.Arithmetic))
 	if res.Score[0] != 100 || res.Score[3] != 0 {
