@@ -2,6 +2,7 @@ package index
 
 import (
 	"math"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -114,7 +115,7 @@ func BenchmarkReadEvents(b *testing.B) {
 			sb.WriteString(",heatwave,water_temperature,2019-07-01,2019-07-12,2.75,14,true,0.35\n")
 		}
 		text := sb.String()
-		b.Run(strconvItoa(rows), func(b *testing.B) {
+		b.Run(strconv.Itoa(rows), func(b *testing.B) {
 			b.SetBytes(int64(len(text)))
 			b.ReportAllocs()
 			for b.Loop() {
