@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"rebound/index/calendar"
+	"rebound/index/series"
 )
 
 func TestReadUserEvents(t *testing.T) {
@@ -59,9 +59,9 @@ func TestReadUserEvents(t *testing.T) {
 				if err == nil || err.Error() != tc.err {
 					t.Fatalf("error %v, want %s", err, tc.err)
 				}
-				var pe *ParseError
+				var pe *series.ParseError
 				if !errors.As(err, &pe) {
-					t.Errorf("error %T, want *ParseError", err)
+					t.Errorf("error %T, want *series.ParseError", err)
 				}
 				return
 			}
@@ -74,8 +74,8 @@ func TestReadUserEvents(t *testing.T) {
 		})
 	}
 	_, err := ReadUserEvents(strings.NewReader("kind,start,end\ns,2019-7-3,2019-07-05\n"), "ev.csv")
-	if !errors.Is(err, calendar.ErrSyntax) {
-		t.Errorf("error %v does not wrap calendar.ErrSyntax", err)
+	if !errors.Is(err, series.ErrDate) {
+		t.Errorf("error %v is not a series.ErrDate", err)
 	}
 }
 
