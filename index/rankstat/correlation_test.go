@@ -195,3 +195,25 @@ func BenchmarkKendall(b *testing.B) {
 		})
 	}
 }
+
+func TestCorrelationBounds(t *testing.T) {
+	// Identical rankings correlate exactly 1 (analytic), not 1 plus a
+	// rounding error; reversed ones exactly −1.
+	for _, n := range []int{7, 100, 1001, 4097} {
+		x := make([]float64, n)
+		y := make([]float64, n)
+		for i := range x {
+			x[i] = float64((i * 7919) % n)
+			y[i] = -x[i]
+		}
+		if got := KendallTauB(x, x); got != 1 {
+			t.Errorf("n=%d: tau-b(x, x) = %v", n, got)
+		}
+		if got := Spearman(x, x); got != 1 {
+			t.Errorf("n=%d: rho(x, x) = %v", n, got)
+		}
+		if got := KendallTauB(x, y); got != -1 {
+			t.Errorf("n=%d: tau-b(x, −x) = %v", n, got)
+		}
+	}
+}

@@ -95,10 +95,15 @@ func (k *Kendall) TauB(x, y []int32) float64 {
 	n0 := int64(n) * int64(n-1) / 2
 	num := n0 - n1 - n2 + n3 - 2*d // C − D
 	den := math.Sqrt(float64(n0-n1)) * math.Sqrt(float64(n0-n2))
+	if n1 == n2 {
+		den = float64(n0 - n1) // exact, so identical rankings give exactly ±1
+	}
 	if den == 0 {
 		return math.NaN()
 	}
-	return float64(num) / den
+	// The two square roots can round the ratio of identical rankings a
+	// last bit past 1; tau-b lies in [−1, 1].
+	return max(-1, min(1, float64(num)/den))
 }
 
 // identity fills p with 0, 1, ..., len(p)−1 and returns it.

@@ -59,7 +59,8 @@ func Spearman(x, y []float64) float64 {
 	if len(x) < 2 || hasNaN(x) || hasNaN(y) {
 		return math.NaN()
 	}
-	return stat.Correlation(MidRanks(nil, x), MidRanks(nil, y), nil)
+	// Rounding can carry the correlation a last bit past ±1.
+	return max(-1, min(1, stat.Correlation(MidRanks(nil, x), MidRanks(nil, y), nil)))
 }
 
 func hasNaN(x []float64) bool {

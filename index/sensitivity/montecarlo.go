@@ -46,12 +46,13 @@ type StationRanks struct {
 	Mean float64
 	// Top is the fraction of samples that rank the station TopN or better
 	// (a station tied at rank TopN counts), and Bottom the fraction that
-	// rank it below n−TopN.
+	// rank it below n−TopN, n the number of stations with a score.
 	Top, Bottom float64
 	Stability   Stability
 }
 
-// Stability classifies a station's rank over the samples. With n stations,
+// Stability classifies a station's rank over the samples. With n stations
+// that have a score,
 // N = TopN and the 5th–95th percentile interval [Low, High], the first rule
 // that holds decides:
 //
@@ -209,12 +210,20 @@ func monteCarlo[C uint16 | uint32](p *prepared, ws *weightSampler, s Settings, s
 		wg.Wait()
 	}
 
+	// The bottom band counts from the last station with a score: stations
+	// without one rank after every scored station in every sample.
+	ranked := 0
+	for _, ok := range p.baseFinite {
+		if ok {
+			ranked++
+		}
+	}
 	res.Stations = make([]StationRanks, n)
 	var wg sync.WaitGroup
 	for wi := range nw {
 		wg.Go(func() {
 			for st := wi * n / nw; st < (wi+1)*n/nw; st++ {
-				res.Stations[st] = summarize(hist[st*n:st*n+n], samples, res.TopN, p.baseRanks[st], p.baseFinite[st])
+				res.Stations[st] = summarize(hist[st*n:st*n+n], samples, res.TopN, ranked, p.baseRanks[st], p.baseFinite[st])
 			}
 		})
 	}
@@ -236,9 +245,10 @@ func firstError(workers []*mcWorker) error {
 }
 
 // summarize reads one station's rank histogram (count[r−1] samples at
-// rank r).
-func summarize[C uint16 | uint32](count []C, samples, topN int, base int32, defined bool) StationRanks {
-	n := len(count)
+// rank r). ranked is the number of stations with a score, which the bottom
+// band counts back from.
+func summarize[C uint16 | uint32](count []C, samples, topN, ranked int, base int32, defined bool) StationRanks {
+	n := ranked
 	sr := StationRanks{Base: base}
 	n05, n50, n95 := percentileCount(5, samples), percentileCount(50, samples), percentileCount(95, samples)
 	var cum, top, bottom int

@@ -92,7 +92,7 @@ func TestMonteCarloAgainstStoredRanks(t *testing.T) {
 					if x <= 6 {
 						top++
 					}
-					if x > n-6 {
+					if x > float64(len(included))-6 { // the bottom 6 of the scored stations
 						bottom++
 					}
 				}
@@ -233,11 +233,18 @@ func TestStability(t *testing.T) {
 			for r, c := range test.ranks {
 				count[r-1] = uint16(c)
 			}
-			got := summarize(count, 20, 2, 1, test.defined)
+			got := summarize(count, 20, 2, 10, 1, test.defined)
 			if got.Stability != test.want || got.Low != test.low || got.High != test.high {
 				t.Errorf("got %v [%d, %d], want %v [%d, %d]", got.Stability, got.Low, got.High, test.want, test.low, test.high)
 			}
 		})
+	}
+	// With the 10th station unscored, the bottom band of 2 is ranks 8–9:
+	// a station always at 8 or 9 is robustly at the bottom (hand).
+	count := make([]uint16, 10)
+	count[7], count[8] = 10, 10
+	if got := summarize(count, 20, 2, 9, 8, true); got.Stability != RobustBottom || got.Bottom != 1 {
+		t.Errorf("bottom band with an unscored station: %v, P(bottom) %v", got.Stability, got.Bottom)
 	}
 }
 
