@@ -108,12 +108,17 @@ func Decode(text, file string) (*Config, []error) {
 		return cfg, []error{tomlError(err, file, lines)}
 	}
 	var errs []error
+	seen := map[string]int{} // how often each unknown key was reported
 	for _, k := range md.Undecoded() {
 		path := []string(k)
 		key := strings.Join(path, ".")
 		e := &Error{File: file, Key: key, Msg: "unknown key"}
-		p := findLine(lines, path)
-		e.Line = p.Line
+		// A key repeated in several [[table]] elements is reported once
+		// per element, each at its own line.
+		if ps := findLines(lines, path); len(ps) > 0 {
+			e.Line = ps[min(seen[key], len(ps)-1)].Line
+		}
+		seen[key]++
 		valid := validKeys(reflect.TypeOf(*cfg), path[:len(path)-1])
 		if near := closest(path[len(path)-1], valid); near != "" {
 			e.Msg += fmt.Sprintf(" (did you mean %q?)", near)
@@ -289,7 +294,7 @@ func (c *Config) Validate() []error {
 				bad(key+".tolerance", "want a tolerance >= 0, got %g", in.Tolerance)
 			}
 		}
-		if method == ZScore && c.Aggregation.Method == Geometric {
+		if in.Normalize == ZScore && c.Aggregation.Method == Geometric {
 			bad(key+".normalize", "z-scores can be negative, so they cannot enter a geometric aggregation; use minmax, rank or target, or arithmetic aggregation")
 		}
 		if c.Weighting.Method == Explicit {
@@ -314,6 +319,9 @@ func (c *Config) Validate() []error {
 	c.validateSensitivity(bad)
 	if c.Weighting.Method == AHPW {
 		errs = append(errs, c.validateAHP(names)...)
+	}
+	if c.Normalization.Method == ZScore && c.Aggregation.Method == Geometric && slices.ContainsFunc(c.Indicators, func(in Indicator) bool { return in.Normalize == "" }) {
+		bad("normalization.method", "z-scores can be negative, so they cannot enter a geometric aggregation; use minmax, rank or target, or arithmetic aggregation")
 	}
 	if c.Aggregation.Method == Geometric && !(c.Aggregation.Floor > 0 && c.Aggregation.Floor < 1) {
 		bad("aggregation.floor", "want a floor strictly between 0 and 1, got %g", c.Aggregation.Floor)

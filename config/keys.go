@@ -105,17 +105,27 @@ func unquoteKey(k string) string {
 
 var indexRE = regexp.MustCompile(`\[\d+\]`)
 
-// findLine returns the first line whose key, with array indices removed,
-// equals path.
-func findLine(lines map[string]Pos, path []string) Pos {
+// findLines returns, in line order, the positions of every key whose path,
+// with array indices removed, equals path: a key repeated in several
+// array-of-table elements has one position per element.
+func findLines(lines map[string]Pos, path []string) []Pos {
 	want := strings.Join(path, ".")
-	var best Pos
+	var out []Pos
 	for k, p := range lines {
-		if indexRE.ReplaceAllString(k, "") == want && (best.Line == 0 || p.Line < best.Line) {
-			best = p
+		if indexRE.ReplaceAllString(k, "") == want {
+			out = append(out, p)
 		}
 	}
-	return best
+	slices.SortFunc(out, func(a, b Pos) int { return a.Line - b.Line })
+	return out
+}
+
+// findLine returns the first position of path (see findLines).
+func findLine(lines map[string]Pos, path []string) Pos {
+	if ps := findLines(lines, path); len(ps) > 0 {
+		return ps[0]
+	}
+	return Pos{}
 }
 
 // Pos is a 1-based line and column in a configuration file.
