@@ -209,6 +209,10 @@ func (r *Run) Score() error {
 	}
 	res, err := index.Score(r.Raw, index.SpecFrom(r.Config, r.Weights, groups))
 	if err != nil {
+		if r.Config.DeriveEvents() && r.Events != nil && len(r.Events.Events) == 0 {
+			return fmt.Errorf("%w; no event was derived from the series at any station: do they hold the drivers (%s for heat waves, %s for droughts and floods)? rebound events -config %s lists what each station lacks",
+				err, r.Config.Events.Heatwave.Variable, r.Config.Events.Drought.Variable, r.Config.File)
+		}
 		return err
 	}
 	r.Result = res
