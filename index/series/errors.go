@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"strconv"
 	"unicode/utf8"
+
+	"rebound/index/calendar"
 )
 
 // Kinds of problem in an input file; a *ParseError unwraps to one of them.
@@ -71,4 +73,27 @@ func quoteField(b []byte) string {
 
 func wantGot(want string, got []byte) string {
 	return fmt.Sprintf("want %s, got %s", want, quoteField(got))
+}
+
+// Daily records are taken to lie between FirstDay and LastDay. A date
+// outside is almost always a typing error (0202 for 2020), and accepting it
+// would stretch a station's record over centuries of empty days.
+var (
+	FirstDay = calendar.New(1800, 1, 1)
+	LastDay  = calendar.New(2199, 12, 31)
+)
+
+// parseDay parses an ISO 8601 date of a daily record. want is "" when the
+// date is good, else what was wanted, for the error message.
+func parseDay(b []byte) (day calendar.Date, want string) {
+	d, err := calendar.ParseBytes(b)
+	switch {
+	case err == calendar.ErrRange:
+		return 0, "a calendar day that exists"
+	case err != nil:
+		return 0, "an ISO 8601 date YYYY-MM-DD"
+	case d < FirstDay || d > LastDay:
+		return 0, "a date from " + FirstDay.String() + " to " + LastDay.String()
+	}
+	return d, ""
 }

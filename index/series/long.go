@@ -573,19 +573,15 @@ func (w *worker) record(b *block, rec []byte, plain, multiline bool, line int) {
 		w.skipped[string(vname)]++
 		return
 	}
-	day, err := w.lastDay, error(nil)
+	day, want := w.lastDay, ""
 	if !bytes.Equal(f[lay.date], w.lastDate) {
-		day, err = calendar.ParseBytes(f[lay.date])
-		if err == nil {
+		day, want = parseDay(f[lay.date])
+		if want == "" {
 			w.lastDate, w.lastDay = append(w.lastDate[:0], f[lay.date]...), day
 		}
 	}
-	if err != nil {
+	if want != "" {
 		l, c := pos(lay.date)
-		want := "an ISO 8601 date YYYY-MM-DD"
-		if err == calendar.ErrRange {
-			want = "a calendar day that exists"
-		}
 		w.problem(rd.errorf(l, c, colDate, ErrDate, wantGot(want, f[lay.date])))
 		return
 	}

@@ -186,6 +186,8 @@ func TestLongErrors(t *testing.T) {
 			`f.csv:3:3: date: want an ISO 8601 date YYYY-MM-DD, got "2020-1-02"`, ErrDate},
 		{"no such day", h + "A,2023-02-29,discharge,1\n", optWQ(),
 			`f.csv:2:3: date: want a calendar day that exists, got "2023-02-29"`, ErrDate},
+		{"mistyped year", h + "A,2020-05-01,discharge,1\nA,0202-05-02,discharge,1\n", optWQ(),
+			`f.csv:3:3: date: want a date from 1800-01-01 to 2199-12-31, got "0202-05-02"`, ErrDate},
 		{"extra field", h + "A,2020-01-01,discharge,1,5\n", optWQ(),
 			`f.csv:2:26: want 4 fields, got 5`, ErrFieldCount},
 		{"decimal comma", h + "A,2020-01-01,discharge,\"1,5\"\n", optWQ(),

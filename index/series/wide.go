@@ -123,12 +123,8 @@ func ReadWide(r io.Reader, name string, v Var, opt Options) ([]*Station, Summary
 		}
 		sum.Rows++
 		line, _ := cr.FieldPos(0)
-		day, derr := calendar.ParseBytes(bytesOf(rec[0]))
-		if derr != nil {
-			want := "an ISO 8601 date YYYY-MM-DD"
-			if derr == calendar.ErrRange {
-				want = "a calendar day that exists"
-			}
+		day, want := parseDay(bytesOf(rec[0]))
+		if want != "" {
 			problem(rd.errorf(line, 1, colDate, ErrDate, wantGot(want, []byte(rec[0]))))
 			continue
 		}

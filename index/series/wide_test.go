@@ -53,6 +53,7 @@ func TestReadWideErrors(t *testing.T) {
 		{"repeated station", "date,A,B,A\n", `w:1:10: want each station once, got "A" again (first in column 2)`, ErrHeader},
 		{"empty station", "date,A,,B\n", `w:1:8: want a station ID, got ""`, ErrHeader},
 		{"bad date", "date,A\n2020-01-01,1\n01/02/2020,2\n", `w:3:1: date: want an ISO 8601 date YYYY-MM-DD, got "01/02/2020"`, ErrDate},
+		{"mistyped year", "date,A\n2020-01-01,1\n2200-01-02,2\n", `w:3:1: date: want a date from 1800-01-01 to 2199-12-31, got "2200-01-02"`, ErrDate},
 		{"repeated date", "date,A\n2020-01-01,1\n2020-01-02,1\n2020-01-01,2\n", `w:4:1: date: want one row per date, got 2020-01-01 again (first on line 2)`, ErrDuplicate},
 		{"bad value", "date,A,B\n2020-01-01,1,1..5\n", `w:2:14: B: want a finite decimal number, or empty, NA or NaN if missing, got "1..5"`, ErrValue},
 		{"field count", "date,A,B\n2020-01-01,1\n", `w:2:1: want 3 fields, got 2`, ErrFieldCount},
