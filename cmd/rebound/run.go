@@ -335,7 +335,7 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	if *cfgPath == "" {
 		return usageError{"check: -config FILE is required"}
 	}
-	r, errs := pipeline.Load(*cfgPath)
+	r, errs := pipeline.LoadWith(*cfgPath, pipeline.Options{Checking: true})
 	if len(errs) > 0 {
 		reportProblems(stderr, errs)
 		if len(errs) == 1 {

@@ -84,6 +84,9 @@ type Options struct {
 	// cluster command needs only the features); NoClusters skips the
 	// clustering (the events and check commands).
 	OnlyClusters, NoClusters bool
+	// Checking validates the inputs without the costly parts that check
+	// nothing (the clustering's bootstrap replicates).
+	Checking bool
 }
 
 // Load reads and validates the configuration at path and every input it
@@ -125,6 +128,9 @@ func LoadInputs(path string, opt Options) (*Run, []error) {
 	}
 	if opt.NoClusters {
 		cfg.Clustering = nil
+	}
+	if opt.Checking && cfg.Clustering != nil {
+		cfg.Clustering.Bootstrap = 0
 	}
 	r := &Run{Config: cfg, progress: opt.Progress, clusterProgress: opt.ClusterProgress, onlyClusters: opt.OnlyClusters}
 	if in, err := digest("config", path); err == nil {
