@@ -57,6 +57,9 @@ type KTable struct {
 	Sampled bool
 	// Warnings collects the warnings of the clusterings.
 	Warnings []error
+	// Tree is the hierarchical tree that was cut at every k, so callers
+	// need not build it again; nil for k-means.
+	Tree *Tree
 }
 
 // ChooseK tabulates the silhouette, Calinski–Harabasz and Davies–Bouldin
@@ -121,7 +124,7 @@ func ChooseK(x mat.Matrix, s KSearch) ([]KTable, error) {
 		if err != nil {
 			return nil, err
 		}
-		t := KTable{Method: l.String(), Sampled: sampled, Warnings: tree.Warnings}
+		t := KTable{Method: l.String(), Sampled: sampled, Warnings: tree.Warnings, Tree: tree}
 		labels := make([]int, n)
 		for k := lo; k <= hi; k++ {
 			t.Scores = append(t.Scores, score(tree.Cut(labels, k), k))

@@ -509,11 +509,8 @@ func clusterTable(t *features.Table, units []string, cl *config.Clustering, seed
 		return nil, err
 	}
 	res.Partitions = append(res.Partitions, Partition{Method: KMeans, Labels: kr.Labels, Cophenetic: math.NaN()})
-	for _, l := range linkages {
-		tree, err := ts.Tree(x, l)
-		if err != nil {
-			return nil, err
-		}
+	for i, l := range linkages {
+		tree := tables[i+1].Tree // ChooseK lists k-means first, then each linkage
 		p := Partition{Method: l.String(), Tree: tree, Labels: tree.Cut(nil, k), Cophenetic: math.NaN()}
 		if !tree.TwoStage {
 			p.Cophenetic = clustering.CopheneticCorrelation(tree.Dendrogram, clustering.Pairwise(x))
