@@ -11,6 +11,7 @@ import (
 
 	"rebound/cmd/rebound/internal/report"
 	"rebound/cmd/rebound/internal/testrun"
+	"rebound/cmd/rebound/internal/view"
 )
 
 // validate checks data against the rules of RFC 7946 that a layer of
@@ -199,7 +200,7 @@ func TestRenderMatchesRanking(t *testing.T) {
 
 	// With the optional results, each feature carries its interval and
 	// cluster.
-	e := testrun.Extras(t, r, 4)
+	e := view.Of(r)
 	data, err = Encode(Stations(r, e))
 	if err != nil {
 		t.Fatal(err)

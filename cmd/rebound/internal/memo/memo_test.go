@@ -88,6 +88,12 @@ func TestDemoGolden(t *testing.T) {
 		t.Fatal(err)
 	}
 	checkFigures(t, memo, figs)
+	// The demo configures clustering and sensitivity, so every figure is there.
+	for _, want := range []string{FigScores, FigTornado, FigDendrogram, FigProfiles} {
+		if figs[want] == nil {
+			t.Errorf("no %s", want)
+		}
+	}
 	golden(t, "demo.md", stable(r, memo))
 	again, figs2, _ := Render(r, man)
 	if !bytes.Equal(memo, again) {
@@ -100,20 +106,6 @@ func TestDemoGolden(t *testing.T) {
 	}
 }
 
-func TestDemoExtrasGolden(t *testing.T) {
-	r, man := testrun.Demo(t)
-	memo, figs, err := render(r, man, testrun.Extras(t, r, 4))
-	if err != nil {
-		t.Fatal(err)
-	}
-	checkFigures(t, memo, figs)
-	for _, want := range []string{FigScores, FigTornado, FigDendrogram, FigProfiles} {
-		if figs[want] == nil {
-			t.Errorf("no %s", want)
-		}
-	}
-	golden(t, "demo_extras.md", stable(r, memo))
-}
 
 // TestTwoStations renders the memo of a small, odd run (two stations,
 // attributes only, names full of Markdown and formula characters).

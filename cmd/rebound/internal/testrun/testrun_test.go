@@ -18,14 +18,3 @@ func TestDemo(t *testing.T) {
 		t.Errorf("scored %d of %d stations", man.Scored, len(r.Attrs.Stations))
 	}
 }
-
-func TestExtras(t *testing.T) {
-	r, _ := Demo(t)
-	e := Extras(t, r, 4)
-	if len(e.Sensitivity.Low) != len(r.Attrs.Stations) || len(e.Sensitivity.Swings) != len(r.Raw.Indicators) {
-		t.Errorf("sensitivity sizes: %d stations, %d swings", len(e.Sensitivity.Low), len(e.Sensitivity.Swings))
-	}
-	if len(e.Clusters.Profiles) != 4 {
-		t.Errorf("%d profiles, want 4", len(e.Clusters.Profiles))
-	}
-}

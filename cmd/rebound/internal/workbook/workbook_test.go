@@ -87,7 +87,7 @@ func header(t *testing.T, f *excelize.File, sheet string) map[string]int {
 
 func TestDemoMatchesCSV(t *testing.T) {
 	r, man := testrun.Demo(t)
-	e := testrun.Extras(t, r, 4)
+	e := view.Of(r)
 	data, err := render(r, man, e)
 	if err != nil {
 		t.Fatal(err)
@@ -268,7 +268,7 @@ func TestUserTextStaysText(t *testing.T) {
 
 func TestDeterministic(t *testing.T) {
 	r, man := testrun.Demo(t)
-	e := testrun.Extras(t, r, 3)
+	e := view.Of(r)
 	a, err := render(r, man, e)
 	if err != nil {
 		t.Fatal(err)
@@ -354,7 +354,7 @@ func BenchmarkRender(b *testing.B) {
 	for _, tc := range []struct {
 		name string
 		e    view.Extras
-	}{{"demo", view.Extras{}}, {"demo+extras", testrun.Extras(b, r, 4)}} {
+	}{{"demo", view.Extras{}}, {"demo+extras", view.Of(r)}} {
 		b.Run(tc.name, func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
