@@ -106,7 +106,6 @@ func TestDemoGolden(t *testing.T) {
 	}
 }
 
-
 // TestTwoStations renders the memo of a small, odd run (two stations,
 // attributes only, names full of Markdown and formula characters).
 func TestTwoStations(t *testing.T) {
