@@ -66,6 +66,23 @@ func WriteRanking(w io.Writer, r *pipeline.Run) error {
 	return cw.Error()
 }
 
+// IndicatorStatus says how indicator j was used at station i: "ok",
+// "imputed" (the group median stood in), "missing" (left out, its weight
+// redistributed) or "rmst" (a restricted mean survival time instead of the
+// Kaplan–Meier median). Every output uses these words.
+func IndicatorStatus(r *pipeline.Run, i, j int) string {
+	res := r.Result
+	switch {
+	case res.Imputed[i][j]:
+		return "imputed"
+	case math.IsNaN(res.Normalized[i][j]):
+		return "missing"
+	case r.Raw.Fallback[i][j]:
+		return "rmst"
+	}
+	return "ok"
+}
+
 // IndicatorColumns are the columns of indicators.csv.
 var IndicatorColumns = []string{"station", "indicator", "measure", "raw", "normalized", "weight", "contribution", "status", "note"}
 
@@ -79,15 +96,7 @@ func WriteIndicators(w io.Writer, r *pipeline.Run) error {
 	res := r.Result
 	for _, i := range res.Order {
 		for j, ind := range r.Raw.Indicators {
-			status := "ok"
-			switch {
-			case res.Imputed[i][j]:
-				status = "imputed"
-			case math.IsNaN(res.Normalized[i][j]):
-				status = "missing"
-			case r.Raw.Fallback[i][j]:
-				status = "rmst"
-			}
+			status := IndicatorStatus(r, i, j)
 			cw.Write([]string{
 				r.Raw.Stations[i], ind.Name, string(ind.Measure), Num(r.Raw.Values[i][j]), Num(res.Normalized[i][j]),
 				Num(r.Weights.W[j]), Num(res.Contribution[i][j]), status, r.Raw.Notes[i][j],

@@ -393,15 +393,7 @@ func (w *writer) indicators() {
 	for _, i := range res.Order {
 		st := r.Attrs.Stations[i]
 		for j, ind := range r.Raw.Indicators {
-			status := "ok"
-			switch {
-			case res.Imputed[i][j]:
-				status = "imputed"
-			case math.IsNaN(res.Normalized[i][j]):
-				status = "missing"
-			case r.Raw.Fallback[i][j]:
-				status = "rmst"
-			}
+			status := report.IndicatorStatus(r, i, j)
 			rows = append(rows, []any{st.ID, st.Name, res.Rank[i], ind.Name, labelOf(ind), nanBlank(r.Raw.Values[i][j]),
 				nanBlank(res.Normalized[i][j]), r.Weights.W[j], nanBlank(res.Contribution[i][j]), status, r.Raw.Notes[i][j]})
 		}
