@@ -40,6 +40,34 @@ type Event struct {
 	// kinds.
 	Deficit, DeficitVolume float64
 
+	// Severity is the event's class, Moderate to Extreme (Unrated for user
+	// events and floods whose return period could not be fitted); see
+	// Severity for how each kind is rated.
+	Severity int
+	// DriverIntensity is the strength of the disturbance on one scale per
+	// kind, for comparing responses per unit of driver: the mean intensity
+	// of a heat wave (°C above the seasonal mean), the relative flow deficit
+	// 1 − q_min/threshold of a drought (0–1), and the peak-to-threshold
+	// ratio of a flood. NaN for user events.
+	DriverIntensity float64
+	// HeatRatio is the heat wave's largest ratio of departure to threshold
+	// departure (its Hobday category is its floor, capped at 4); NaN for
+	// other kinds.
+	HeatRatio float64
+	// ReturnPeriod is the flood peak's return period in years from the GEV
+	// fitted to the annual maxima, and EmpiricalReturnPeriod its
+	// Gringorten plotting position among them, (n + 0.12)/(m − 0.44) with m
+	// the number of annual maxima at or above the peak; NaN for other kinds
+	// and when the fit failed.
+	ReturnPeriod, EmpiricalReturnPeriod float64
+	// DeficitProbability and DurationProbability are a drought's empirical
+	// non-exceedance probabilities among the station's reported droughts,
+	// count(<= x)/(n + 1) (Weibull); NaN for other kinds.
+	DeficitProbability, DurationProbability float64
+	// Overlaps lists the IDs of the other events whose peak windows share
+	// days with this one's.
+	Overlaps []string
+
 	// AntecedentDryness measures the dryness of the days before Start (see
 	// Antecedent); NaN when it cannot be computed.
 	AntecedentDryness float64
@@ -89,6 +117,13 @@ type Response struct {
 	Recovered    bool
 	RecoveryDays int
 	Censor       Censor
+	// CensoredBy is the ID of the event that cut the recovery short when
+	// Censor is NextEvent, "" otherwise.
+	CensoredBy string
+	// Shared is the number of peak-window days credited to another event
+	// under the overlap rule (see Variable.Driver) and left out of the
+	// peak search.
+	Shared int
 }
 
 // Result holds the events of one station.
@@ -147,18 +182,22 @@ func (a *Analyzer) Analyze(s *series.Station, users []UserEvent, o Options) (Res
 			daily(seas, &cl.Mean, doy)
 			daily(thr, &cl.Pct[0], doy)
 			for _, hw := range HeatWaves(x, seas, thr, o.Heat.MinDuration, o.Heat.MaxGap) {
+				if !inSeason(o.Heat.Months, s.Date(hw.Peak)) {
+					continue
+				}
 				res.Events = append(res.Events, Event{
 					Kind: HeatWaveKind, Start: s.Date(hw.Start), End: s.Date(hw.End), Duration: hw.Len(),
 					DriverPeak: hw.MaxIntensity, DriverPeakDate: s.Date(hw.Peak),
 					MeanIntensity: hw.MeanIntensity, CumIntensity: hw.CumIntensity,
 					Deficit: math.NaN(), DeficitVolume: math.NaN(),
-				})
+					Severity: hw.Category, DriverIntensity: hw.MeanIntensity, HeatRatio: hw.MaxRatio,
+				}.blank(HeatWaveKind))
 			}
 		}
 	}
 
 	// Droughts, which antecedent dryness needs even when they are not
-	// reported.
+	// reported, and needs out of season too.
 	q := s.Var(o.Drought.Variable)
 	var droughts []Drought
 	haveDrought := false
@@ -168,16 +207,23 @@ func (a *Analyzer) Analyze(s *series.Station, users []UserEvent, o Options) (Res
 		warn("%s: %w: droughts not detected, antecedent dryness left blank", o.Drought.Variable, err)
 	} else {
 		haveDrought = true
-		droughts = Droughts(q, dthr, o.Drought.Pool, o.Drought.MinDuration, o.Drought.MinDeficitFraction)
+		droughts = Droughts(q, dthr, DroughtCriteria{Pool: o.Drought.Pool, PoolRatio: o.Drought.PoolRatio,
+			MinDuration: o.Drought.MinDuration, MinDeficitFraction: o.Drought.MinDeficitFraction})
 		if !o.Drought.Off {
+			from := len(res.Events)
 			for _, d := range droughts {
+				if !inSeason(o.Drought.Months, s.Date(d.Min)) {
+					continue
+				}
 				res.Events = append(res.Events, Event{
 					Kind: DroughtKind, Start: s.Date(d.Start), End: s.Date(d.End), Duration: d.Len(),
 					DriverPeak: d.MinFlow, DriverPeakDate: s.Date(d.Min),
 					MeanIntensity: math.NaN(), CumIntensity: math.NaN(),
 					Deficit: d.Deficit, DeficitVolume: d.Deficit * 86400,
-				})
+					DriverIntensity: relativeDeficit(d.MinFlow, dthr[max(d.Min, 0)]),
+				}.blank(DroughtKind))
 			}
+			rateDroughts(res.Events[from:], o.Severity.Probabilities)
 		}
 	}
 
@@ -192,13 +238,23 @@ func (a *Analyzer) Analyze(s *series.Station, users []UserEvent, o Options) (Res
 			for i := range thr {
 				thr[i] = t
 			}
+			from := len(res.Events)
 			for _, f := range Floods(qf, thr, o.Flood.Separation, o.Flood.Trough) {
+				if !inSeason(o.Flood.Months, s.Date(f.Peak)) {
+					continue
+				}
 				res.Events = append(res.Events, Event{
 					Kind: FloodKind, Start: s.Date(f.Start), End: s.Date(f.End), Duration: f.Len(),
 					DriverPeak: f.PeakFlow, DriverPeakDate: s.Date(f.Peak),
 					MeanIntensity: math.NaN(), CumIntensity: math.NaN(),
 					Deficit: math.NaN(), DeficitVolume: math.NaN(),
-				})
+					DriverIntensity: f.PeakFlow / t,
+				}.blank(FloodKind))
+			}
+			if floods := res.Events[from:]; len(floods) > 0 {
+				if err := rateFloods(floods, qf, s.Start, o.Severity); err != nil {
+					warn("%s: %v: floods left unrated", o.Flood.Variable, err)
+				}
 			}
 		}
 	}
@@ -217,11 +273,9 @@ func (a *Analyzer) Analyze(s *series.Station, users []UserEvent, o Options) (Res
 		if start != u.Start || end != u.End {
 			warn("%s event %v..%v cut to the record: %v..%v", u.Kind, u.Start, u.End, start, end)
 		}
-		nan := math.NaN()
 		res.Events = append(res.Events, Event{
 			Kind: u.Kind, Start: start, End: end, Duration: int(end-start) + 1,
-			DriverPeak: nan, MeanIntensity: nan, CumIntensity: nan, Deficit: nan, DeficitVolume: nan,
-		})
+		}.blank(u.Kind))
 	}
 
 	slices.SortStableFunc(res.Events, func(a, b Event) int {
@@ -243,18 +297,30 @@ func (a *Analyzer) Analyze(s *series.Station, users []UserEvent, o Options) (Res
 		}
 	}
 	block := make([]Response, 0, nv*len(res.Events))
-	// stop[k] is the day the disturbance after event k starts: the first
-	// event to start after k ends, or the end of the record.
-	stop := make([]int, len(res.Events))
+	// stop[k] is the day the disturbance that censors event k starts (see
+	// Recovery.CensorBy), or the end of the record; by[k] is its index,
+	// -1 for the end of the record. win[k] is the peak window.
+	stop, by := make([]int, len(res.Events)), make([]int, len(res.Events))
+	win := make([]Span, len(res.Events))
 	for k := range res.Events {
 		e := &res.Events[k]
 		e.Responses = block[k*nv : k*nv : (k+1)*nv]
-		next := sort.Search(len(res.Events), func(j int) bool { return res.Events[j].Start > e.End })
-		stop[k] = n
-		if next < len(res.Events) {
-			stop[k] = s.Index(res.Events[next].Start)
+		stop[k], by[k] = n, -1
+		for j := sort.Search(len(res.Events), func(j int) bool { return res.Events[j].Start > e.End }); j < len(res.Events); j++ {
+			if o.Recovery.censors(e, &res.Events[j]) {
+				stop[k], by[k] = s.Index(res.Events[j].Start), j
+				break
+			}
 		}
+		win[k] = Span{s.Index(e.Start), min(s.Index(e.End)+o.Recovery.Lag, stop[k]-1, n-1)}
 	}
+	pairs := overlapping(res.Events, win)
+	for _, pr := range pairs {
+		a, b := &res.Events[pr[0]], &res.Events[pr[1]]
+		a.Overlaps = append(a.Overlaps, b.ID)
+		b.Overlaps = append(b.Overlaps, a.ID)
+	}
+	var skip []Span
 	for _, v := range o.Responses {
 		x := s.Var(v.Name)
 		if x == nil {
@@ -276,9 +342,13 @@ func (a *Analyzer) Analyze(s *series.Station, users []UserEvent, o Options) (Res
 		}
 		for k := range res.Events {
 			e := &res.Events[k]
-			r := respond(anom, s.Index(e.Start), s.Index(e.End), stop[k], v.Harmful, tol, o.Recovery)
+			skip = ceded(skip[:0], k, v.Driver, res.Events, win, pairs)
+			r := respond(anom, win[k], s.Index(e.End), stop[k], skip, v.Harmful, tol, o.Recovery)
 			r.Variable = v.Name
 			r.PeakDate = e.Start + calendar.Date(max(r.TimeToPeak, 0))
+			if r.Censor == NextEvent {
+				r.CensoredBy = res.Events[by[k]].ID
+			}
 			e.Responses = append(e.Responses, r)
 		}
 	}
@@ -380,14 +450,25 @@ func stdDev(x []float64) float64 {
 	return math.Sqrt(ss / float64(k-1))
 }
 
-// respond measures the response of the departures a to the event of days
-// start..end, given that the next disturbance starts on day stop (len(a)
-// when there is none).
-func respond(a []float64, start, end, stop, harmful int, tol float64, o Recovery) Response {
+// respond measures the response of the departures a to the event whose
+// peak window is win and whose last day is end, given that the disturbance
+// that censors it starts on day stop (len(a) when there is none). The days
+// of skip (sorted, disjoint) are left out of the peak search: they are
+// credited to another event.
+func respond(a []float64, win Span, end, stop int, skip []Span, harmful int, tol float64, o Recovery) Response {
 	n := len(a)
+	start := win.Start
 	r := Response{PeakDeparture: math.NaN(), TimeToPeak: -1, Tolerance: tol}
 	h := float64(harmful)
-	for i := start; i <= min(end+o.Lag, stop-1, n-1); i++ {
+	sk := 0
+	for i := start; i <= win.End; i++ {
+		for sk < len(skip) && skip[sk].End < i {
+			sk++
+		}
+		if sk < len(skip) && skip[sk].Start <= i {
+			r.Shared++
+			continue
+		}
 		if v := a[i]; !math.IsNaN(v) && (r.TimeToPeak < 0 || h*v > h*r.PeakDeparture) {
 			r.PeakDeparture, r.TimeToPeak = v, i-start
 		}

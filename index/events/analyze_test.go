@@ -47,6 +47,11 @@ func TestAnalyzeHobday(t *testing.T) {
 	if !close(e.DriverPeak, 4.440432, tol) || !close(e.MeanIntensity, 2.959775, tol) || !close(e.CumIntensity, 59.195491, tol) {
 		t.Errorf("intensity max %.6f mean %.6f cum %.6f, want 4.440432 2.959775 59.195491", e.DriverPeak, e.MeanIntensity, e.CumIntensity)
 	}
+	// The reference code rates the event "Extreme", category IV of Hobday
+	// et al. (2018).
+	if e.Severity != Extreme || !(e.HeatRatio >= 4) || e.DriverIntensity != e.MeanIntensity {
+		t.Errorf("severity %d (ratio %v, driver intensity %v), want %d (ratio >= 4, the mean intensity)", e.Severity, e.HeatRatio, e.DriverIntensity, Extreme)
+	}
 	// With the package default (3 days) the 4-day August pulse becomes a
 	// second event: 2006-08-20..23 at +3.5 °C (by construction of the series).
 	o.Heat.MinDuration = 0
@@ -116,9 +121,21 @@ func plantedHeat() (*series.Station, calendar.Date) {
 	return station("PLANT", start, map[string][]float64{"air_temperature": air, "water_temperature": water}), start
 }
 
+// plantedOptions are the options the planted records were worked by hand
+// with: heat waves in every month, a fixed drought threshold pooled by the
+// time criterion alone, no minor-deficit removal, and recovery censored by
+// any next event.
+func plantedOptions() Options {
+	o := DefaultOptions()
+	o.Heat.Months = nil
+	o.Drought.Threshold, o.Drought.PoolRatio, o.Drought.MinDeficitFraction = Fixed, 0, 0
+	o.Recovery.CensorBy = CensorAny
+	return o
+}
+
 func TestAnalyzePlantedHeat(t *testing.T) {
 	s, _ := plantedHeat()
-	o := DefaultOptions()
+	o := plantedOptions()
 	o.Responses = []Variable{{Name: "water_temperature", Harmful: +1, Tolerance: 1}}
 	users := []UserEvent{
 		{Kind: "spill", Start: date("2018-05-01"), End: date("2018-05-03")},
@@ -214,7 +231,7 @@ func TestAnalyzePlantedFlow(t *testing.T) {
 		{Kind: "check", Start: date("2009-06-01"), End: date("2009-06-01")},
 		{Kind: "check", Start: date("2016-03-10"), End: date("2016-03-10")},
 	}
-	o := DefaultOptions()
+	o := plantedOptions()
 	o.Heat.Off = true
 	r, err := Analyze(s, users, o)
 	if err != nil {
@@ -316,7 +333,7 @@ func TestAnalyzeDroughtOptions(t *testing.T) {
 			[]string{"DR-2010-08-01", "DR-2012-07-01"}},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			o := DefaultOptions()
+			o := plantedOptions()
 			o.Heat.Off, o.Flood.Off = true, true
 			tc.change(&o)
 			r, err := Analyze(s, nil, o)
@@ -353,6 +370,12 @@ func TestValidate(t *testing.T) {
 		{"twice", func(o *Options) { o.Responses[2].Name = o.Responses[0].Name }, `responses[2].name: "water_temperature" is listed twice`},
 		{"measure", func(o *Options) { o.Antecedent.Measure = "spi" }, `antecedent.measure: want "fraction" or "index", got "spi"`},
 		{"coverage", func(o *Options) { o.Antecedent.MinCoverage = math.NaN() }, "antecedent.min_coverage: want a number in [0, 1], got NaN"},
+		{"month", func(o *Options) { o.Heat.Months = Months{6, 13} }, "heat.months[2]: want a month 1–12, got 13"},
+		{"censor rule", func(o *Options) { o.Recovery.CensorBy = "kind" }, `recovery.censor_by: want one of ["same_kind_or_severe" "any" "same_kind" "severe"], got "kind"`},
+		{"censor class", func(o *Options) { o.Recovery.CensorMinSeverity = 5 }, "recovery.censor_min_severity: want a class 1–4, got 5"},
+		{"return periods", func(o *Options) { o.Severity.ReturnPeriods = [3]float64{10, 2, 50} }, "severity.return_periods: want three increasing return periods above 1 year, got [10 2 50]"},
+		{"probabilities", func(o *Options) { o.Severity.Probabilities = [3]float64{0.5, 0.8, 1} }, "severity.probabilities: want three increasing probabilities strictly between 0 and 1, got [0.5 0.8 1]"},
+		{"pool ratio", func(o *Options) { o.Drought.PoolRatio = -0.1 }, "drought.pool_ratio: want a number in [0, +Inf], got -0.1"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			o := DefaultOptions()

@@ -77,6 +77,12 @@ type HeatWave struct {
 	MaxIntensity  float64 // x − seas on the peak day
 	MeanIntensity float64 // mean of x − seas over the event
 	CumIntensity  float64 // sum of x − seas over the event (e.g. °C·d)
+	// MaxRatio is the largest daily (x − seas)/(thresh − seas) of the
+	// event, and Category its floor capped at 4: the category of Hobday et
+	// al. (2018), 1 moderate, 2 strong, 3 severe, 4 extreme. The day of the
+	// largest ratio need not be the day of largest intensity.
+	MaxRatio float64
+	Category int
 }
 
 // HeatWaves finds the events of the percentile-threshold definition of
@@ -94,12 +100,15 @@ func HeatWaves(x, seas, thresh []float64, minDur, maxGap int) []HeatWave {
 	spans := join(dropShort(Runs(nil, x, thresh, +1), minDur), maxGap)
 	out := make([]HeatWave, len(spans))
 	for k, s := range spans {
-		hw := HeatWave{Span: s, Peak: -1, MaxIntensity: math.NaN()}
+		hw := HeatWave{Span: s, Peak: -1, MaxIntensity: math.NaN(), MaxRatio: math.NaN()}
 		n := 0
 		for i := s.Start; i <= s.End; i++ {
 			a := x[i] - seas[i]
 			if math.IsNaN(a) {
 				continue
+			}
+			if d := thresh[i] - seas[i]; d > 0 && !(a/d <= hw.MaxRatio) {
+				hw.MaxRatio = a / d
 			}
 			if hw.Peak < 0 || a > hw.MaxIntensity {
 				hw.Peak, hw.MaxIntensity = i, a
@@ -108,9 +117,38 @@ func HeatWaves(x, seas, thresh []float64, minDur, maxGap int) []HeatWave {
 			n++
 		}
 		hw.MeanIntensity = hw.CumIntensity / float64(n)
+		hw.Category = hobdayCategory(hw.MaxRatio)
 		out[k] = hw
 	}
 	return out
+}
+
+// hobdayCategory returns the category of Hobday et al. (2018) for the
+// largest ratio r of departure to threshold departure: floor(r) capped at
+// 4, at least 1 (an event day exceeds the threshold, so r > 1 but for
+// rounding), 0 when r is NaN.
+func hobdayCategory(r float64) int {
+	if math.IsNaN(r) {
+		return 0
+	}
+	return int(min(max(math.Floor(r), 1), 4))
+}
+
+// DroughtCriteria are the pooling and minor-event rules of Droughts.
+type DroughtCriteria struct {
+	// Pool is the inter-event time criterion t_c: runs separated by this
+	// many days or fewer may be pooled.
+	Pool int
+	// PoolRatio, when > 0, adds the inter-event volume criterion p_c: the
+	// flow above the threshold between two runs must be at most PoolRatio
+	// times the deficit of the event before them.
+	PoolRatio float64
+	// MinDuration removes the events shorter than this many days, pooled
+	// gaps included.
+	MinDuration int
+	// MinDeficitFraction removes, after that, the events whose deficit is
+	// below this fraction of the largest deficit left.
+	MinDeficitFraction float64
 }
 
 // Drought is a low-flow event found by Droughts.
@@ -130,15 +168,25 @@ type Drought struct {
 // 1997, Hydrological Sciences Journal 42:15–33):
 //
 //  1. drought days are days with q strictly below thr;
-//  2. runs separated by pool days or fewer are pooled into one event, the
-//     days between them included (the inter-event time criterion);
-//  3. minor events are removed: those lasting fewer than minDur days,
-//     pooled gaps included, and then those whose deficit is below
-//     minFrac times the largest deficit of the events left.
+//  2. runs separated by c.Pool days or fewer are pooled into one event,
+//     the days between them included (the inter-event time criterion),
+//     when c.PoolRatio is 0 or the volume above the threshold between
+//     them is at most c.PoolRatio times the deficit of the event so far
+//     (the inter-event volume criterion of the IC method);
+//  3. minor events are removed: those lasting fewer than c.MinDuration
+//     days, pooled gaps included, and then those whose deficit is below
+//     c.MinDeficitFraction times the largest deficit of the events left.
 //
 // Droughts panics if len(q) != len(thr).
-func Droughts(q, thr []float64, pool, minDur int, minFrac float64) []Drought {
-	spans := dropShort(join(Runs(nil, q, thr, -1), pool), minDur)
+func Droughts(q, thr []float64, c DroughtCriteria) []Drought {
+	runs := Runs(nil, q, thr, -1)
+	if c.PoolRatio > 0 {
+		runs = poolIC(runs, q, thr, c.Pool, c.PoolRatio)
+	} else {
+		runs = join(runs, c.Pool)
+	}
+	spans := dropShort(runs, c.MinDuration)
+	minFrac := c.MinDeficitFraction
 	out := make([]Drought, len(spans))
 	largest := 0.0
 	for k, s := range spans {
@@ -167,6 +215,44 @@ func Droughts(q, thr []float64, pool, minDur int, minFrac float64) []Drought {
 		out = out[:k]
 	}
 	return out
+}
+
+// poolIC pools, in place, the runs separated by pool days or fewer whose
+// excess volume between them (the sum of q − thr over the gap's days with a
+// flow) is at most ratio times the deficit of the pooled event before.
+func poolIC(runs []Span, q, thr []float64, pool int, ratio float64) []Span {
+	if len(runs) == 0 {
+		return runs
+	}
+	deficit := func(s Span) float64 {
+		d := 0.0
+		for i := s.Start; i <= s.End; i++ {
+			if v := q[i]; v < thr[i] {
+				d += thr[i] - v
+			}
+		}
+		return d
+	}
+	k, acc := 0, deficit(runs[0])
+	for _, r := range runs[1:] {
+		if r.Start-runs[k].End-1 <= pool {
+			excess := 0.0
+			for i := runs[k].End + 1; i < r.Start; i++ {
+				if v := q[i]; v > thr[i] {
+					excess += v - thr[i]
+				}
+			}
+			if excess <= ratio*acc {
+				runs[k].End = r.End
+				acc += deficit(r)
+				continue
+			}
+		}
+		k++
+		runs[k] = r
+		acc = deficit(r)
+	}
+	return runs[:k+1]
 }
 
 // Flood is a high-flow event found by Floods.

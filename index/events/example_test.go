@@ -35,7 +35,7 @@ func ExampleDroughts() {
 	for i := range thr {
 		thr[i] = 10
 	}
-	for _, d := range events.Droughts(q, thr, 2, 3, 0) {
+	for _, d := range events.Droughts(q, thr, events.DroughtCriteria{Pool: 2, MinDuration: 3}) {
 		fmt.Printf("days %d–%d: deficit %.1f m³/s·d = %.0f m³, lowest %.1f m³/s on day %d\n",
 			d.Start+1, d.End+1, d.Deficit, d.Deficit*86400, d.MinFlow, d.Min+1)
 	}

@@ -3,6 +3,7 @@ package events
 import (
 	"fmt"
 	"math"
+	"slices"
 )
 
 // Kinds of the detected events.
@@ -29,6 +30,82 @@ type Options struct {
 	Recovery  Recovery
 	// Antecedent sets the measure of antecedent dryness.
 	Antecedent Antecedent
+	// Severity sets how the severity class of each detected event is found.
+	Severity Severity
+}
+
+// Severity classes shared by every kind of event, from the mildest. A user
+// event has class 0: its severity is not known.
+const (
+	Unrated  = 0
+	Moderate = 1
+	Strong   = 2
+	Severe   = 3
+	Extreme  = 4
+)
+
+// SeverityNames are the names of the classes, indexed by class.
+var SeverityNames = [...]string{"unrated", "moderate", "strong", "severe", "extreme"}
+
+// SeverityName returns the name of class c, "unrated" when c is out of range.
+func SeverityName(c int) string {
+	if c < 0 || c >= len(SeverityNames) {
+		return SeverityNames[0]
+	}
+	return SeverityNames[c]
+}
+
+// Severity configures the severity class of the detected events.
+//
+// Heat waves take the category of Hobday et al. (2018): the largest daily
+// ratio of the driver's departure from its seasonal mean to the threshold's
+// departure, floored and capped at 4 (1–2 moderate, 2–3 strong, 3–4 severe,
+// 4 and more extreme).
+//
+// Floods take the return period of their peak in the generalised extreme
+// value distribution fitted by L-moments to the station's annual maxima; a
+// peak below ReturnPeriods[0] is moderate, below ReturnPeriods[1] strong,
+// below ReturnPeriods[2] severe, and extreme above.
+//
+// Droughts take the larger of the empirical non-exceedance probabilities of
+// their deficit and duration among the station's droughts (Weibull plotting
+// position, count(<= x)/(n+1)); classes break at Probabilities as for
+// floods.
+type Severity struct {
+	// ReturnPeriods are the three return periods in years that separate
+	// the flood classes, increasing. Zero means 2, 10, 50.
+	ReturnPeriods [3]float64
+	// Probabilities are the three non-exceedance probabilities that
+	// separate the drought classes, increasing in (0, 1). Zero means 0.5,
+	// 0.8, 0.95.
+	Probabilities [3]float64
+	// FitMinYears is the fewest annual maxima the flood fit takes; with
+	// fewer the floods are unrated and a warning says so. 0 means 10.
+	FitMinYears int
+	// YearCoverage is the least fraction of a year's days that must have a
+	// flow for its maximum to enter the fit. 0 means 0.9.
+	YearCoverage float64
+	// WaterYear takes annual maxima over October–September water years
+	// instead of calendar years.
+	WaterYear bool
+}
+
+// Month sets are the months in which an event kind is reported: an event is
+// kept when the day of its driver's extreme falls in one of them. Empty
+// means every month.
+type Months []int
+
+// has reports whether month m (1–12) is in the set.
+func (ms Months) has(m int) bool {
+	if len(ms) == 0 {
+		return true
+	}
+	for _, x := range ms {
+		if x == m {
+			return true
+		}
+	}
+	return false
 }
 
 // HeatRule configures heat-wave detection.
@@ -46,6 +123,11 @@ type HeatRule struct {
 	// the events shorter than MinDuration are dropped. Zero is a real
 	// value; DefaultOptions sets 2 (Hobday et al. 2016).
 	MaxGap int
+	// Months is the season: heat waves whose hottest day falls outside it
+	// are not reported. DefaultOptions sets June–September, the northern
+	// warm season; a winter warm spell does not stress a river the way
+	// summer heat does.
+	Months Months
 }
 
 // Threshold says how the drought threshold varies over the year.
@@ -65,7 +147,8 @@ type DroughtRule struct {
 	// 20: Q80, the flow exceeded 80% of the time.
 	Percentile float64
 	// Threshold is Fixed (the percentile of all reference flows) or Daily
-	// (the percentile of the day-of-year climatology). "" means Fixed.
+	// (the percentile of the day-of-year climatology). "" means Daily: a
+	// fixed threshold calls every seasonal low-flow period a drought.
 	Threshold Threshold
 	// MinDuration is the shortest event kept, in days, pooled gaps
 	// included. 0 means 5.
@@ -74,9 +157,21 @@ type DroughtRule struct {
 	// inter-event time criterion t_c). Zero is a real value;
 	// DefaultOptions sets 5.
 	Pool int
+	// PoolRatio is the inter-event volume criterion of the IC method
+	// (Zelenhasić & Salvai 1987; Tallaksen et al. 1997): runs closer than
+	// Pool days are pooled only when the flow volume above the threshold
+	// between them is at most PoolRatio times the deficit of the event
+	// before. Zero turns the volume test off (time criterion only);
+	// DefaultOptions sets 0.1.
+	PoolRatio float64
 	// MinDeficitFraction drops the events whose deficit is below this
-	// fraction of the station's largest. 0 (the default) keeps all.
+	// fraction of the station's largest. Zero keeps all; DefaultOptions
+	// sets 0.005.
 	MinDeficitFraction float64
+	// Months is the season: droughts whose lowest flow falls outside it
+	// are not reported (antecedent dryness still counts them). Empty
+	// means every month.
+	Months Months
 }
 
 // FloodRule configures flood detection.
@@ -92,6 +187,9 @@ type FloodRule struct {
 	// Trough is the fraction of the smaller peak the flow must drop below
 	// between independent peaks. 0 means 0.75.
 	Trough float64
+	// Months is the season: floods whose peak falls outside it are not
+	// reported. Empty means every month.
+	Months Months
 }
 
 // Variable is a water-quality variable and the direction of harm.
@@ -104,6 +202,12 @@ type Variable struct {
 	// units. 0 means Recovery.ToleranceSD standard deviations of the
 	// station's reference-period departures.
 	Tolerance float64
+	// Driver is the kind of event that drives this variable (e.g.
+	// "heatwave" for water temperature). When the peak windows of two
+	// events of different kinds share days, those days count for the
+	// event of the driver kind, or, when neither is, for the later one.
+	// "" means no kind is preferred.
+	Driver string
 }
 
 // Recovery configures the response window and the recovery rule.
@@ -123,7 +227,35 @@ type Recovery struct {
 	// over; a longer gap censors recovery. Zero is a real value;
 	// DefaultOptions sets 3.
 	MaxGap int
+	// CensorBy says which next event cuts a recovery short (and ends the
+	// peak window): "" means CensorSameKindOrSevere.
+	CensorBy CensorRule
+	// CensorMinSeverity is the least severity class of an event of another
+	// kind that censors, for CensorSevere and CensorSameKindOrSevere. 0
+	// means Strong.
+	CensorMinSeverity int
 }
+
+// CensorRule names the events that end a recovery search.
+type CensorRule string
+
+const (
+	// CensorAny: any next event.
+	CensorAny CensorRule = "any"
+	// CensorSameKind: the next event of the same kind, or a user event.
+	CensorSameKind CensorRule = "same_kind"
+	// CensorSevere: the next event of at least CensorMinSeverity, or a user
+	// event.
+	CensorSevere CensorRule = "severe"
+	// CensorSameKindOrSevere: the next event of the same kind or of at
+	// least CensorMinSeverity, or a user event. A moderate flood a week
+	// after a heat wave does not hide the river's recovery from the heat;
+	// a second heat wave does.
+	CensorSameKindOrSevere CensorRule = "same_kind_or_severe"
+)
+
+// CensorRules lists every rule.
+var CensorRules = []CensorRule{CensorSameKindOrSevere, CensorAny, CensorSameKind, CensorSevere}
 
 // Dryness names a measure of antecedent dryness.
 type Dryness string
@@ -151,16 +283,19 @@ type Antecedent struct {
 // variables the configuration knows.
 func DefaultOptions() Options {
 	return Options{
-		Heat:    HeatRule{Variable: "air_temperature", Percentile: 90, MinDuration: 3, MaxGap: 2},
-		Drought: DroughtRule{Variable: "discharge", Percentile: 20, Threshold: Fixed, MinDuration: 5, Pool: 5},
-		Flood:   FloodRule{Variable: "discharge", Percentile: 95, Separation: 7, Trough: 0.75},
+		Heat: HeatRule{Variable: "air_temperature", Percentile: 90, MinDuration: 3, MaxGap: 2, Months: Months{6, 7, 8, 9}},
+		Drought: DroughtRule{Variable: "discharge", Percentile: 20, Threshold: Daily, MinDuration: 5, Pool: 5,
+			PoolRatio: 0.1, MinDeficitFraction: 0.005},
+		Flood: FloodRule{Variable: "discharge", Percentile: 95, Separation: 7, Trough: 0.75},
 		Responses: []Variable{
-			{Name: "water_temperature", Harmful: +1},
-			{Name: "specific_conductance", Harmful: +1},
-			{Name: "dissolved_oxygen", Harmful: -1},
+			{Name: "water_temperature", Harmful: +1, Driver: HeatWaveKind},
+			{Name: "specific_conductance", Harmful: +1, Driver: DroughtKind},
+			{Name: "dissolved_oxygen", Harmful: -1, Driver: HeatWaveKind},
 		},
-		Recovery:   Recovery{Lag: 14, Run: 7, ToleranceSD: 1, MaxGap: 3},
+		Recovery:   Recovery{Lag: 14, Run: 7, ToleranceSD: 1, MaxGap: 3, CensorBy: CensorSameKindOrSevere, CensorMinSeverity: Strong},
 		Antecedent: Antecedent{Measure: Fraction, Days: 365, MinCoverage: 0.8},
+		Severity: Severity{ReturnPeriods: [3]float64{2, 10, 50}, Probabilities: [3]float64{0.5, 0.8, 0.95},
+			FitMinYears: 10, YearCoverage: 0.9},
 	}
 }
 
@@ -173,7 +308,7 @@ func (o Options) withDefaults() Options {
 	setS(&d.Variable, "discharge")
 	setF(&d.Percentile, 20)
 	if d.Threshold == "" {
-		d.Threshold = Fixed
+		d.Threshold = Daily
 	}
 	setI(&d.MinDuration, 5)
 	setS(&f.Variable, "discharge")
@@ -182,6 +317,19 @@ func (o Options) withDefaults() Options {
 	setF(&f.Trough, 0.75)
 	setI(&r.Run, 7)
 	setF(&r.ToleranceSD, 1)
+	if r.CensorBy == "" {
+		r.CensorBy = CensorSameKindOrSevere
+	}
+	setI(&r.CensorMinSeverity, Strong)
+	sv := &o.Severity
+	if sv.ReturnPeriods == [3]float64{} {
+		sv.ReturnPeriods = [3]float64{2, 10, 50}
+	}
+	if sv.Probabilities == [3]float64{} {
+		sv.Probabilities = [3]float64{0.5, 0.8, 0.95}
+	}
+	setI(&sv.FitMinYears, 10)
+	setF(&sv.YearCoverage, 0.9)
 	if a.Measure == "" {
 		a.Measure = Fraction
 	}
@@ -256,6 +404,44 @@ func (o Options) Validate() error {
 	case "", Fixed, Daily:
 	default:
 		return fmt.Errorf("drought.threshold: want %q or %q, got %q", Fixed, Daily, o.Drought.Threshold)
+	}
+	for _, m := range []struct {
+		key string
+		ms  Months
+	}{{"heat.months", o.Heat.Months}, {"drought.months", o.Drought.Months}, {"flood.months", o.Flood.Months}} {
+		for i, x := range m.ms {
+			if x < 1 || x > 12 {
+				return fmt.Errorf("%s[%d]: want a month 1–12, got %d", m.key, i+1, x)
+			}
+		}
+	}
+	if err := frac("drought.pool_ratio", o.Drought.PoolRatio, math.Inf(1)); err != nil {
+		return err
+	}
+	if o.Recovery.CensorBy != "" && !slices.Contains(CensorRules, o.Recovery.CensorBy) {
+		return fmt.Errorf("recovery.censor_by: want one of %q, got %q", CensorRules, o.Recovery.CensorBy)
+	}
+	if c := o.Recovery.CensorMinSeverity; c < 0 || c > Extreme {
+		return fmt.Errorf("recovery.censor_min_severity: want a class 1–4, got %d", c)
+	}
+	sv := o.Severity
+	if sv.ReturnPeriods != [3]float64{} {
+		r := sv.ReturnPeriods
+		if !(r[0] > 1 && r[1] > r[0] && r[2] > r[1]) || math.IsInf(r[2], 0) {
+			return fmt.Errorf("severity.return_periods: want three increasing return periods above 1 year, got %v", r[:])
+		}
+	}
+	if sv.Probabilities != [3]float64{} {
+		p := sv.Probabilities
+		if !(p[0] > 0 && p[1] > p[0] && p[2] > p[1] && p[2] < 1) {
+			return fmt.Errorf("severity.probabilities: want three increasing probabilities strictly between 0 and 1, got %v", p[:])
+		}
+	}
+	if sv.FitMinYears < 0 {
+		return fmt.Errorf("severity.fit_min_years: want a number of years >= 0, got %d", sv.FitMinYears)
+	}
+	if err := frac("severity.year_coverage", sv.YearCoverage, 1); err != nil {
+		return err
 	}
 	switch o.Antecedent.Measure {
 	case "", Fraction, Index:

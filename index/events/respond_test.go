@@ -96,7 +96,8 @@ func TestRespond(t *testing.T) {
 		},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			got := respond(tc.a, tc.start, tc.end, tc.stop, tc.harmful, 1, tc.o)
+			win := Span{tc.start, min(tc.end+tc.o.Lag, tc.stop-1, len(tc.a)-1)}
+			got := respond(tc.a, win, tc.end, tc.stop, nil, tc.harmful, 1, tc.o)
 			if !close(got.PeakDeparture, tc.peak, 1e-12) || got.TimeToPeak != tc.timeToPeak {
 				t.Errorf("peak %v after %d days, want %v after %d", got.PeakDeparture, got.TimeToPeak, tc.peak, tc.timeToPeak)
 			}

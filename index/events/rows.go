@@ -30,6 +30,17 @@ type Row struct {
 	DeficitVolume  float64 // droughts, m³
 	Tolerance      float64 // recovery band half-width, variable units
 	Observed       int     // event days with a value
+
+	Severity              int     // class 1–4, 0 unrated
+	DriverIntensity       float64 // see Event.DriverIntensity
+	HeatRatio             float64 // heat waves
+	ReturnPeriod          float64 // floods, years
+	EmpiricalReturnPeriod float64 // floods, years (Gringorten)
+	DeficitProbability    float64 // droughts
+	DurationProbability   float64 // droughts
+	Overlaps              []string
+	CensoredBy            string
+	Shared                int // peak-window days credited to an overlapping event
 }
 
 // Rows appends to dst one row per event and response of r, in event
@@ -48,6 +59,10 @@ func (r *Result) Rows(dst []Row) []Row {
 				MeanIntensity: e.MeanIntensity, CumIntensity: e.CumIntensity,
 				Deficit: e.Deficit, DeficitVolume: e.DeficitVolume,
 				Tolerance: v.Tolerance, Observed: v.Observed,
+				Severity: e.Severity, DriverIntensity: e.DriverIntensity, HeatRatio: e.HeatRatio,
+				ReturnPeriod: e.ReturnPeriod, EmpiricalReturnPeriod: e.EmpiricalReturnPeriod,
+				DeficitProbability: e.DeficitProbability, DurationProbability: e.DurationProbability,
+				Overlaps: e.Overlaps, CensoredBy: v.CensoredBy, Shared: v.Shared,
 			})
 		}
 	}
