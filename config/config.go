@@ -149,6 +149,9 @@ func Decode(text, file string) (*Config, []error) {
 		if in.Better == "" && in.Measure.FromEvents() {
 			in.Better = Lower
 		}
+		if in.EventWeights == "" && in.Measure.FromEvents() {
+			in.EventWeights = WeightNone
+		}
 		if in.Better == "" && in.Measure == CriterionM {
 			in.Better = defaultBetter(in.Statistic)
 		}
@@ -273,10 +276,25 @@ func (c *Config) Validate() []error {
 					bad(key+".variables", "variable %q is not defined in a [[variable]] table", v)
 				}
 			}
-			if (in.Measure == Magnitude || in.Measure == MemoryM) && len(in.Variables) != 1 {
+			departures := in.Measure == Magnitude || in.Measure == MemoryM || in.Measure == ResponseSlope
+			if departures && len(in.Variables) != 1 {
 				bad(key+".variables", "measure %q compares departures, which have units: name exactly one variable, got %d", in.Measure, len(in.Variables))
 			}
-			if (in.Measure == Magnitude || in.Measure == MemoryM) && len(in.Variables) == 1 {
+			if in.Measure == ResponseSlope && len(in.Kinds) != 1 {
+				bad(key+".kinds", "measure \"response_slope\" divides by the driver's intensity, whose scale differs by kind: name exactly one of \"heatwave\", \"drought\", \"flood\", got %d kinds", len(in.Kinds))
+			}
+			if in.Measure == ResponseSlope && len(in.Kinds) == 1 {
+				if msg := choiceMsg(in.Kinds[0], []string{"heatwave", "drought", "flood"}); msg != "" {
+					bad(key+".kinds", "measure \"response_slope\" needs a derived kind with a driver intensity: %s", msg)
+				}
+			}
+			if ms := in.MinSeverity; ms != nil && (*ms < 1 || *ms > 4) {
+				bad(key+".min_severity", "want a severity class 1-4 (1 moderate = every event, 2 strong, 3 severe, 4 extreme), got %d", *ms)
+			}
+			if msg := choiceMsg(in.EventWeights, []string{WeightNone, WeightSeverity}); in.EventWeights != "" && msg != "" {
+				bad(key+".event_weights", "%s", msg)
+			}
+			if departures && len(in.Variables) == 1 {
 				if v, ok := c.Variable(in.Variables[0]); ok && v.Harmful == "" {
 					bad(key+".variables", "variable %q has no harmful direction; set harmful = \"increase\" or \"decrease\" in its [[variable]] table", v.Name)
 				}

@@ -13,7 +13,7 @@ func TestTemplateDecodesAndValidates(t *testing.T) {
 	for _, e := range errs {
 		t.Error(e)
 	}
-	if cfg.Title != "Resilience screening" || len(cfg.Indicators) != 4 || len(cfg.Variables) != 6 {
+	if cfg.Title != "Resilience screening" || len(cfg.Indicators) != 6 || len(cfg.Variables) != 6 {
 		t.Fatalf("template decoded to %+v", cfg)
 	}
 	if got := cfg.Indicators[0].Better; got != Lower {
@@ -92,7 +92,7 @@ func TestErrors(t *testing.T) {
 		{"wrong type", base + "[output]\nprint = \"ten\"\n",
 			[]string{`c.toml:6:9: output.print: want an integer, got a string`}},
 		{"bad choice names line, column and a suggestion", base + "[[indicator]]\nname = \"a\"\nmeasure = \"recovry\"\nweight = 1\n",
-			[]string{`c.toml:7:11: indicator[1].measure: want one of "magnitude", "recovery", "memory", "frequency", "attribute", "criterion", got "recovry" (did you mean "recovery"?)`}},
+			[]string{`c.toml:7:11: indicator[1].measure: want one of "magnitude", "recovery", "memory", "response_slope", "frequency", "attribute", "criterion", got "recovry" (did you mean "recovery"?)`}},
 		{"negative weight", base + "[[indicator]]\nname = \"a\"\nmeasure = \"recovery\"\nweight = -0.5\n",
 			[]string{`c.toml:8:10: indicator[1].weight: want a number >= 0, got -0.5`}},
 		{"all weights zero", base + "[[indicator]]\nname = \"a\"\nmeasure = \"recovery\"\nweight = 0\n",

@@ -2,6 +2,7 @@ package config
 
 import (
 	"fmt"
+	"math"
 	"strings"
 
 	"rebound/index/series"
@@ -39,6 +40,9 @@ type HeatwaveRule struct {
 	Percentile float64 `toml:"percentile"`
 	MinDays    int     `toml:"min_days"`
 	MaxGapDays int     `toml:"max_gap_days"`
+	// Months is the season: heat waves whose hottest day falls in another
+	// month are not reported. Empty means every month.
+	Months []int `toml:"months"`
 }
 
 // DroughtRule configures drought detection on discharge (threshold level
@@ -50,7 +54,12 @@ type DroughtRule struct {
 	Threshold          string  `toml:"threshold"`
 	MinDays            int     `toml:"min_days"`
 	PoolDays           int     `toml:"pool_days"`
+	PoolVolumeRatio    float64 `toml:"pool_volume_ratio"`
 	MinDeficitFraction float64 `toml:"min_deficit_fraction"`
+	Months             []int   `toml:"months"`
+	// SeverityProbabilities are the non-exceedance probabilities of deficit
+	// or duration that separate moderate, strong, severe and extreme.
+	SeverityProbabilities []float64 `toml:"severity_probabilities"`
 }
 
 // FloodRule configures flood detection on discharge.
@@ -60,6 +69,15 @@ type FloodRule struct {
 	Percentile     float64 `toml:"percentile"`
 	SeparationDays int     `toml:"separation_days"`
 	Trough         float64 `toml:"trough"`
+	Months         []int   `toml:"months"`
+	// SeverityReturnPeriods are the return periods in years that separate
+	// moderate, strong, severe and extreme floods.
+	SeverityReturnPeriods []float64 `toml:"severity_return_periods"`
+	// FitMinYears is the fewest annual maxima the GEV fit takes, and
+	// FitYearCoverage the share of a year's days with a flow for its
+	// maximum to count.
+	FitMinYears     int     `toml:"fit_min_years"`
+	FitYearCoverage float64 `toml:"fit_year_coverage"`
 }
 
 // RecoveryRule configures the response window and the recovery rule.
@@ -68,6 +86,11 @@ type RecoveryRule struct {
 	RunDays     int     `toml:"run_days"`
 	ToleranceSD float64 `toml:"tolerance_sd"`
 	MaxGapDays  int     `toml:"max_gap_days"`
+	// CensorBy says which next event censors a recovery: "any",
+	// "same_kind", "severe" or "same_kind_or_severe"; CensorMinSeverity is
+	// the class (1-4) that counts as severe.
+	CensorBy          string `toml:"censor_by"`
+	CensorMinSeverity int    `toml:"censor_min_severity"`
 }
 
 // DrynessRule configures antecedent dryness.
@@ -89,12 +112,40 @@ type Criterion struct {
 func DefaultEvents() *Events {
 	return &Events{
 		MinYears: 5, HalfWindow: 5, SmoothDays: 31,
-		Heatwave: HeatwaveRule{Enabled: true, Variable: "air_temperature", Percentile: 90, MinDays: 3, MaxGapDays: 2},
-		Drought:  DroughtRule{Enabled: true, Variable: "discharge", Percentile: 20, Threshold: "fixed", MinDays: 5, PoolDays: 5},
-		Flood:    FloodRule{Enabled: true, Variable: "discharge", Percentile: 95, SeparationDays: 7, Trough: 0.75},
-		Recovery: RecoveryRule{LagDays: 14, RunDays: 7, ToleranceSD: 1, MaxGapDays: 3},
+		Heatwave: HeatwaveRule{Enabled: true, Variable: "air_temperature", Percentile: 90, MinDays: 3, MaxGapDays: 2,
+			Months: []int{6, 7, 8, 9}},
+		Drought: DroughtRule{Enabled: true, Variable: "discharge", Percentile: 20, Threshold: "daily", MinDays: 5, PoolDays: 5,
+			PoolVolumeRatio: 0.1, MinDeficitFraction: 0.005, SeverityProbabilities: []float64{0.5, 0.8, 0.95}},
+		Flood: FloodRule{Enabled: true, Variable: "discharge", Percentile: 95, SeparationDays: 7, Trough: 0.75,
+			SeverityReturnPeriods: []float64{2, 10, 50}, FitMinYears: 10, FitYearCoverage: 0.9},
+		Recovery: RecoveryRule{LagDays: 14, RunDays: 7, ToleranceSD: 1, MaxGapDays: 3,
+			CensorBy: "same_kind_or_severe", CensorMinSeverity: 2},
 		Dryness:  DrynessRule{Measure: Fraction, Days: 365, MinCoverage: 0.8},
 	}
+}
+
+// CensorRules are the values of events.recovery.censor_by, the default
+// first.
+var CensorRules = []string{"same_kind_or_severe", "any", "same_kind", "severe"}
+
+// DriverOf returns the event kind that drives variable v: its driver key,
+// or for the three water-quality variables the configuration knows,
+// heatwave for water temperature and dissolved oxygen and drought for
+// specific conductance; "" for none.
+func (v Variable) DriverOf() string {
+	switch v.Driver {
+	case "none":
+		return ""
+	case "":
+		switch v.Name {
+		case "water_temperature", "dissolved_oxygen":
+			return "heatwave"
+		case "specific_conductance":
+			return "drought"
+		}
+		return ""
+	}
+	return v.Driver
 }
 
 // DeriveEvents reports whether events come from daily series rather than an
@@ -227,6 +278,50 @@ func (c *Config) validateEvents(bad reportFunc) {
 	}
 	if !(e.Dryness.MinCoverage > 0 && e.Dryness.MinCoverage <= 1) {
 		bad("events.dryness.min_coverage", "want a fraction in (0, 1], got %g", e.Dryness.MinCoverage)
+	}
+	months := func(key string, ms []int) {
+		seen := map[int]bool{}
+		for i, m := range ms {
+			switch {
+			case m < 1 || m > 12:
+				bad(fmt.Sprintf("%s[%d]", key, i+1), "want a month 1-12, got %d", m)
+			case seen[m]:
+				bad(fmt.Sprintf("%s[%d]", key, i+1), "month %d is listed twice", m)
+			}
+			seen[m] = true
+		}
+	}
+	months("events.heatwave.months", e.Heatwave.Months)
+	months("events.drought.months", e.Drought.Months)
+	months("events.flood.months", e.Flood.Months)
+	if !(e.Drought.PoolVolumeRatio >= 0) || math.IsInf(e.Drought.PoolVolumeRatio, 0) {
+		bad("events.drought.pool_volume_ratio", "want a ratio >= 0 (0 = time criterion only), got %g", e.Drought.PoolVolumeRatio)
+	}
+	if p := e.Drought.SeverityProbabilities; len(p) != 3 || !(p[0] > 0 && p[1] > p[0] && p[2] > p[1] && p[2] < 1) {
+		bad("events.drought.severity_probabilities", "want three increasing probabilities strictly between 0 and 1 (the limits of strong, severe and extreme), got %v", p)
+	}
+	if r := e.Flood.SeverityReturnPeriods; len(r) != 3 || !(r[0] > 1 && r[1] > r[0] && r[2] > r[1]) || math.IsInf(r[2], 0) {
+		bad("events.flood.severity_return_periods", "want three increasing return periods in years, above 1 (the limits of strong, severe and extreme), got %v", r)
+	}
+	if e.Flood.FitMinYears < 5 {
+		bad("events.flood.fit_min_years", "want at least 5 annual maxima for a GEV fit by L-moments, got %d", e.Flood.FitMinYears)
+	}
+	if !(e.Flood.FitYearCoverage > 0 && e.Flood.FitYearCoverage <= 1) {
+		bad("events.flood.fit_year_coverage", "want a fraction in (0, 1], got %g", e.Flood.FitYearCoverage)
+	}
+	if msg := choiceMsg(e.Recovery.CensorBy, CensorRules); msg != "" {
+		bad("events.recovery.censor_by", "%s", msg)
+	}
+	if e.Recovery.CensorMinSeverity < 1 || e.Recovery.CensorMinSeverity > 4 {
+		bad("events.recovery.censor_min_severity", "want a severity class 1-4 (moderate, strong, severe, extreme), got %d", e.Recovery.CensorMinSeverity)
+	}
+	for i, v := range c.Variables {
+		if v.Driver == "" || v.Driver == "none" {
+			continue
+		}
+		if msg := choiceMsg(v.Driver, []string{"heatwave", "drought", "flood", "none"}); msg != "" {
+			bad(fmt.Sprintf("variable[%d].driver", i+1), "%s", msg)
+		}
 	}
 	if c.DeriveEvents() && e.Dryness.Measure != c.Memory.Dryness {
 		bad("memory.dryness", "the derived antecedent dryness is %q (events.dryness.measure); set memory.dryness to match", e.Dryness.Measure)

@@ -27,6 +27,6 @@ weight = 1
 	}
 	fmt.Println(cfg.Normalization.Method, cfg.Aggregation.Method, cfg.Missing.Policy)
 	// Output:
-	// study.toml:7:11: indicator[1].measure: want one of "magnitude", "recovery", "memory", "frequency", "attribute", "criterion", got "recovry" (did you mean "recovery"?)
+	// study.toml:7:11: indicator[1].measure: want one of "magnitude", "recovery", "memory", "response_slope", "frequency", "attribute", "criterion", got "recovry" (did you mean "recovery"?)
 	// minmax arithmetic renormalize
 }

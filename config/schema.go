@@ -102,6 +102,10 @@ type Variable struct {
 	// variable's units; 0 means events.recovery.tolerance_sd standard
 	// deviations of the station's normal departures.
 	Tolerance float64 `toml:"tolerance"`
+	// Driver is the kind of event whose peak a shared day counts for when
+	// two events of different kinds overlap: "heatwave", "drought",
+	// "flood" or "none". Empty takes the default of DriverOf.
+	Driver string `toml:"driver"`
 	// Range is the physically plausible range [low, high] in canonical
 	// units; series values outside it are dropped and counted. Empty means
 	// no check.
@@ -120,6 +124,14 @@ type Indicator struct {
 	// Kinds and Variables filter the events a measure uses; empty means all.
 	Kinds     []string `toml:"kinds"`
 	Variables []string `toml:"variables"`
+	// MinSeverity keeps the events of this severity class (1 moderate to 4
+	// extreme) and above; nil takes the measure's default (see
+	// DefaultMinSeverity). Events of user kinds have no class and are
+	// always kept.
+	MinSeverity *int `toml:"min_severity"`
+	// EventWeights is "none" (every event counts once) or "severity" (an
+	// event of class c counts c times: as if repeated).
+	EventWeights string `toml:"event_weights"`
 	// Attribute is the attribute column for measure = "attribute".
 	Attribute string `toml:"attribute"`
 	// Transform is applied to attribute values before normalisation.
@@ -309,14 +321,45 @@ const (
 	Magnitude Measure = "magnitude"
 	Recovery  Measure = "recovery"
 	MemoryM   Measure = "memory"
-	Frequency Measure = "frequency"
+	// ResponseSlope is the Theil–Sen slope of the harmful departure on the
+	// driver's intensity: the response per unit of disturbance.
+	ResponseSlope Measure = "response_slope"
+	Frequency     Measure = "frequency"
 	Attribute Measure = "attribute"
 	// CriterionM is a station's performance against a [[criterion]].
 	CriterionM Measure = "criterion"
 )
 
 // Measures lists every measure.
-var Measures = []Measure{Magnitude, Recovery, MemoryM, Frequency, Attribute, CriterionM}
+var Measures = []Measure{Magnitude, Recovery, MemoryM, ResponseSlope, Frequency, Attribute, CriterionM}
+
+// Event weightings.
+const (
+	WeightNone     = "none"
+	WeightSeverity = "severity"
+)
+
+// DefaultMinSeverity is the least severity class a measure counts when the
+// indicator does not say: strong (2) for magnitude, recovery and frequency,
+// so that a station's typical response is its response to the disturbances
+// that matter, not to however many mild ones it happened to have; moderate
+// (1, every event) for the slopes, which need the spread of mild to severe
+// events to be estimated.
+func DefaultMinSeverity(m Measure) int {
+	switch m {
+	case Magnitude, Recovery, Frequency:
+		return 2
+	}
+	return 1
+}
+
+// SeverityFloor returns the least severity class the indicator counts.
+func (in Indicator) SeverityFloor() int {
+	if in.MinSeverity != nil {
+		return *in.MinSeverity
+	}
+	return DefaultMinSeverity(in.Measure)
+}
 
 // FromEvents reports whether the measure is computed from the events table.
 func (m Measure) FromEvents() bool { return m != Attribute && m != CriterionM && m != "" }

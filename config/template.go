@@ -70,6 +70,11 @@ record_years_column = "record_years"
 #              units; 0 means events.recovery.tolerance_sd standard deviations
 #   range      plausible [low, high] in °C, m³/s, ...; values outside are
 #              dropped from the series and counted
+#   driver     the kind of event ("heatwave", "drought", "flood" or "none")
+#              a day counts for when the peak windows of two events of
+#              different kinds overlap, so one peak is not counted twice;
+#              empty = heatwave for water temperature and dissolved oxygen,
+#              drought for specific conductance, else the later event
 # Without any [[variable]] table these six are used.
 [[variable]]
 name = "water_temperature"
@@ -77,6 +82,7 @@ units = "degC"
 harmful = "increase"
 tolerance = 0.0
 range = [-1.0, 40.0]
+driver = "heatwave"
 
 [[variable]]
 name = "specific_conductance"
@@ -110,12 +116,29 @@ units = "m3/s"
 #             memory     Theil-Sen slope of magnitude against antecedent
 #                        dryness: how much worse a departure is after a dry
 #                        spell (one variable; needs memory.min_events)
+#             response_slope  Theil-Sen slope of magnitude against the
+#                        driver's intensity (heat waves: mean air-temperature
+#                        anomaly, °C; droughts: 1 - lowest flow/threshold;
+#                        floods: peak/threshold): the response per unit of
+#                        disturbance, which compares stations that faced
+#                        different heat waves like for like (one kind, one
+#                        variable; needs memory.min_events)
 #             frequency  events per year of record
 #             attribute  a numeric column of the attribute table
 #             criterion  performance against a [[criterion]] (needs series):
 #                        statistic = "reliability", "resilience",
 #                        "vulnerability" or "days_above" (per year)
 #   kinds, variables   filter the events a measure uses (empty = all)
+#   min_severity       the least severity class counted: 1 moderate (every
+#                      event), 2 strong, 3 severe, 4 extreme. The default is
+#                      2 for magnitude, recovery and frequency, so that a
+#                      station is judged on the disturbances that stress a
+#                      river and not on how many mild ones it happened to
+#                      have, and 1 for the slopes, which need the spread
+#                      from mild to severe. Events of user kinds have no
+#                      class and always count.
+#   event_weights      "none" (every event counts once) or "severity" (an
+#                      event of class c counts c times)
 #   attribute          the column, for measure = "attribute"
 #   transform          "none", "log" or "sqrt", applied to attribute values
 #   better             "higher" or "lower": which raw values are more
@@ -127,26 +150,45 @@ units = "m3/s"
 #   label              a description with units, for reports
 [[indicator]]
 name = "heat_magnitude"
-label = "Median peak warming in heat waves (°C)"
+label = "Median peak warming in strong heat waves (°C)"
 measure = "magnitude"
 kinds = ["heatwave"]
 variables = ["water_temperature"]
-weight = 0.3
+min_severity = 2
+event_weights = "none"
+weight = 0.25
+
+[[indicator]]
+name = "heat_response"
+label = "Water warming per °C of air-temperature anomaly (°C/°C)"
+measure = "response_slope"
+kinds = ["heatwave"]
+variables = ["water_temperature"]
+min_severity = 1
+weight = 0.1
 
 [[indicator]]
 name = "recovery"
-label = "Median recovery time (days)"
+label = "Median recovery time after strong heat waves and droughts (days)"
 measure = "recovery"
-kinds = []
+kinds = ["heatwave", "drought"]
 variables = []
-weight = 0.3
+weight = 0.2
+
+[[indicator]]
+name = "flood_recovery"
+label = "Median recovery time after floods of 2 years and more (days)"
+measure = "recovery"
+kinds = ["flood"]
+variables = []
+weight = 0.1
 
 [[indicator]]
 name = "drought_memory"
 label = "Extra warming per unit of antecedent dryness (°C)"
 measure = "memory"
 variables = ["water_temperature"]
-weight = 0.2
+weight = 0.15
 
 [[indicator]]
 name = "forest_cover"
@@ -246,49 +288,87 @@ smooth_days = 31
 # Count record coverage by October-September water years.
 water_year = false
 
+# Every derived event gets a severity class: 1 moderate, 2 strong, 3 severe,
+# 4 extreme (heat waves by Hobday et al. 2018 category, floods by return
+# period, droughts by probability; see below). Indicators count the events
+# of a class and above (indicator min_severity).
+
 [events.heatwave]
 # Air temperature strictly above its seasonally varying percentile for at
 # least min_days days; events max_gap_days or less apart are joined.
+# Reported when the hottest day falls in one of months (the northern warm
+# season June-September; [12, 1, 2, 3] south of the equator; [] = all
+# year). Class: the Hobday et al. (2018) category, the floor of the largest
+# daily (T - normal)/(threshold - normal), capped at 4.
 enabled = true
 variable = "air_temperature"
 percentile = 90.0
 min_days = 3
 max_gap_days = 2
+months = [6, 7, 8, 9]
 
 [events.drought]
 # Threshold level method: discharge strictly below the percentile of the
-# reference flows (20 = Q80, the flow exceeded 80% of the time), "fixed" or
-# "daily" (by calendar day); runs pool_days or less apart are pooled; events
-# shorter than min_days, or with a deficit below min_deficit_fraction of the
-# station's largest, are dropped.
+# reference flows (20 = Q80, the flow exceeded 80% of the time), "daily" (of
+# each calendar day's flows, so the usual summer or winter low flow is not a
+# drought) or "fixed" (one flow all year). Runs pool_days or less apart are
+# pooled when the flow volume above the threshold between them is at most
+# pool_volume_ratio of the deficit before (the IC method; 0 = days only);
+# events shorter than min_days, or with a deficit below
+# min_deficit_fraction of the station's largest, are dropped. months as for
+# heat waves, on the day of lowest flow ([] = all year). Class: the larger of
+# the empirical non-exceedance probabilities of deficit and duration among
+# the station's droughts (count <= x over n + 1); strong from the first of
+# severity_probabilities, severe from the second, extreme from the third.
 enabled = true
 variable = "discharge"
 percentile = 20.0
-threshold = "fixed"
+threshold = "daily"
 min_days = 5
 pool_days = 5
-min_deficit_fraction = 0.0
+pool_volume_ratio = 0.1
+min_deficit_fraction = 0.005
+months = []
+severity_probabilities = [0.5, 0.8, 0.95]
 
 [events.flood]
 # Discharge strictly above the percentile (95 = Q5). Peaks closer than
 # separation_days, or between which the flow stays above trough x the
 # smaller peak, are one event.
+# months as for heat waves, on the day of the peak ([] = all year). Class:
+# the return period of the peak in the generalised extreme value
+# distribution fitted by L-moments (Hosking 1990) to the station's annual
+# maxima (water years with water_year = true), over years with at least
+# fit_year_coverage of their days; strong from the first of
+# severity_return_periods (years), severe from the second, extreme from the
+# third. With fewer than fit_min_years annual maxima the floods are
+# unrated (class 0, with a warning).
 enabled = true
 variable = "discharge"
 percentile = 95.0
 separation_days = 7
 trough = 0.75
+months = []
+severity_return_periods = [2.0, 10.0, 50.0]
+fit_min_years = 10
+fit_year_coverage = 0.9
 
 [events.recovery]
 # The peak departure is sought from the event start to lag_days after its
 # end. Recovery is the first day after the end that starts run_days days in
 # a row within +/- tolerance_sd standard deviations of the normal departures
 # (or the variable's fixed tolerance). A gap longer than max_gap_days, the
-# end of the record or the next event first censors it.
+# end of the record or the next event that censor_by names first censors it
+# (and ends the peak window): "same_kind_or_severe" (an event of the same
+# kind, or of class censor_min_severity or above), "same_kind", "severe" or
+# "any". User events always censor. A mild flood a week after a heat wave
+# does not end the heat wave's recovery.
 lag_days = 14
 run_days = 7
 tolerance_sd = 1.0
 max_gap_days = 3
+censor_by = "same_kind_or_severe"
+censor_min_severity = 2
 
 [events.dryness]
 # Antecedent dryness over the days before each event: "fraction" of days in

@@ -7,6 +7,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"math"
 	"os"
 	"slices"
 	"strings"
@@ -33,7 +34,20 @@ type Event struct {
 	Recovered    bool
 	// Dryness is the antecedent dryness before the event, NaN when unknown.
 	Dryness float64
-	Line    int // line in the events file
+	// Severity is the disturbance's class, 1 moderate to 4 extreme, 0
+	// when unrated (user events, floods without a fit, or a table without
+	// the column).
+	Severity int
+	// DriverIntensity is the disturbance's strength on its kind's scale
+	// (see index/events), NaN when unknown.
+	DriverIntensity float64
+	// Censor is why recovery was not observed: "" (recovered or not
+	// said), "record_end", "gap" or "next_event".
+	Censor string
+	// Regional is the identifier of the regional event this station event
+	// belongs to under comparison.basis = "shared", "" otherwise.
+	Regional string
+	Line     int // line in the events file
 }
 
 // EventColumns are the required columns of the events table, in the
@@ -41,11 +55,25 @@ type Event struct {
 var EventColumns = []string{"station", "event", "kind", "variable", "start", "end",
 	"peak_departure", "recovery_days", "recovered", "antecedent_dryness"}
 
+// OptionalEventColumns are read when the header has them: the severity
+// class (0–4 or its name: unrated, moderate, strong, severe, extreme), the
+// driver intensity (a number) and the censoring reason (blank,
+// record_end, gap or next_event). events.csv written by rebound has them.
+var OptionalEventColumns = []string{"severity", "driver_intensity", "censor_reason"}
+
+// SeverityNames name the severity classes 0–4.
+var SeverityNames = []string{"unrated", "moderate", "strong", "severe", "extreme"}
+
+// CensorReasons are the values of the censor_reason column.
+var CensorReasons = []string{"record_end", "gap", "next_event"}
+
 // EventTable is a validated events table.
 type EventTable struct {
 	File   string
 	Events []Event
 	Extra  []string // columns beyond EventColumns, which are kept in the file but not read
+	// Has says which of OptionalEventColumns the table has.
+	Has map[string]bool
 }
 
 // LoadEvents reads the events table at path.
@@ -104,10 +132,18 @@ func ReadEvents(r io.Reader, name string) (*EventTable, []error) {
 		fail(1, 0, "", err)
 		return nil, errs.Errors()
 	}
-	t := &EventTable{File: name}
+	t := &EventTable{File: name, Has: map[string]bool{}}
 	required := map[int]bool{}
 	for _, i := range idx {
 		required[i] = true
+	}
+	for _, c := range OptionalEventColumns {
+		i := slices.Index(h.Names, c)
+		idx = append(idx, i)
+		if i >= 0 {
+			t.Has[c] = true
+			required[i] = true
+		}
 	}
 	for i, n := range h.Names {
 		if !required[i] {
@@ -164,12 +200,25 @@ type rowParser struct {
 	lastDay  [2]calendar.Date
 }
 
-// field returns column k of EventColumns, trimmed of surrounding spaces.
-func (p *rowParser) field(k int) []byte { return bytes.TrimSpace(p.rs.fields[p.idx[k]]) }
+// field returns column k of EventColumns then OptionalEventColumns,
+// trimmed of surrounding spaces; nil for an optional column the table
+// lacks.
+func (p *rowParser) field(k int) []byte {
+	if p.idx[k] < 0 {
+		return nil
+	}
+	return bytes.TrimSpace(p.rs.fields[p.idx[k]])
+}
 
-// bad reports err in column k of EventColumns.
+// bad reports err in column k of EventColumns then OptionalEventColumns.
 func (p *rowParser) bad(k int, err error) {
-	p.errs.Add(&tabular.ParseError{File: p.name, Line: p.rs.recLine, Col: p.rs.cols[p.idx[k]], Column: EventColumns[k], Err: err})
+	name := ""
+	if k < len(EventColumns) {
+		name = EventColumns[k]
+	} else {
+		name = OptionalEventColumns[k-len(EventColumns)]
+	}
+	p.errs.Add(&tabular.ParseError{File: p.name, Line: p.rs.recLine, Col: p.rs.cols[p.idx[k]], Column: name, Err: err})
 }
 
 func (p *rowParser) event() Event {
@@ -195,7 +244,41 @@ func (p *rowParser) event() Event {
 		p.bad(8, err)
 	}
 	e.Dryness = p.number(9, false)
+	n := len(EventColumns)
+	e.DriverIntensity = math.NaN()
+	if p.idx[n] >= 0 {
+		e.Severity = p.severity(n)
+	}
+	if p.idx[n+1] >= 0 {
+		e.DriverIntensity = p.number(n+1, false)
+	}
+	if p.idx[n+2] >= 0 {
+		if c := p.field(n + 2); len(c) > 0 {
+			i := slices.Index(CensorReasons, string(c))
+			if i < 0 {
+				p.bad(n+2, fmt.Errorf("want blank or one of %q, got %q", CensorReasons, c))
+			} else {
+				e.Censor = CensorReasons[i]
+			}
+		}
+	}
 	return e
+}
+
+// severity parses a severity class: blank (unrated), 0–4 or a class name.
+func (p *rowParser) severity(k int) int {
+	s := p.field(k)
+	if len(s) == 0 {
+		return 0
+	}
+	if len(s) == 1 && s[0] >= '0' && s[0] <= '4' {
+		return int(s[0] - '0')
+	}
+	if i := slices.Index(SeverityNames, strings.ToLower(string(s))); i >= 0 {
+		return i
+	}
+	p.bad(k, fmt.Errorf("want a severity class 0-4 or one of %q, got %q", SeverityNames, s))
+	return 0
 }
 
 func (p *rowParser) date(k int) (calendar.Date, bool) {

@@ -37,6 +37,19 @@ type Raw struct {
 	Fallback [][]bool
 	// Events is the number of distinct events per station.
 	Events []int
+	// Used[i][j] is the number of distinct events indicator j counted at
+	// station i (after its kind, variable and severity filters); 0 for
+	// indicators not computed from events.
+	Used [][]int
+	// BySeverity[i] counts station i's distinct events by kind and severity
+	// class (index 0 unrated, 1 moderate … 4 extreme).
+	BySeverity []map[string][5]int
+	// Censored[i] counts station i's event rows whose recovery was
+	// censored, by reason ("record_end", "gap", "next_event").
+	Censored []map[string]int
+	// SeverityKnown is false when the events table has no severity
+	// column: every event then counts whatever min_severity says.
+	SeverityKnown bool
 	// Warnings are facts the reader of the results should know.
 	Warnings []error
 }
@@ -99,12 +112,17 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 		Notes:      make([][]string, n),
 		Fallback:   make([][]bool, n),
 		Events:     make([]int, n),
+		Used:       make([][]int, n),
+		BySeverity: make([]map[string][5]int, n),
+		Censored:   make([]map[string]int, n),
 	}
+	raw.SeverityKnown = events != nil && events.Has["severity"]
 	for i, s := range attrs.Stations {
 		raw.Stations[i], raw.Names[i], raw.Groups[i] = s.ID, s.Name, s.Group
 		raw.Values[i] = make([]float64, len(cfg.Indicators))
 		raw.Notes[i] = make([]string, len(cfg.Indicators))
 		raw.Fallback[i] = make([]bool, len(cfg.Indicators))
+		raw.Used[i] = make([]int, len(cfg.Indicators))
 	}
 
 	// Events by station, with cross-table checks.
@@ -154,6 +172,15 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 			}
 		}
 	}
+	if events != nil && !raw.SeverityKnown {
+		for j, ind := range cfg.Indicators {
+			if ind.Measure.FromEvents() && ind.MinSeverity != nil && *ind.MinSeverity > 1 {
+				errs.Add(&config.Error{File: cfg.File, Key: fmt.Sprintf("indicator[%d].min_severity", j+1),
+					Msg: fmt.Sprintf("%s has no severity column, so events cannot be kept by severity; add the column (classes 1-4, as rebound events writes it) or set min_severity = 1", events.File)})
+			}
+		}
+		raw.Warnings = append(raw.Warnings, &Warning{Msg: fmt.Sprintf("%s has no severity column: every event counts, whatever its strength (indicators' default min_severity taken as 1)", events.File)})
+	}
 	var recordYears []float64
 	if col, ok := attrs.Column(cfg.Inputs.RecordYearsColumn); ok {
 		recordYears = col
@@ -172,6 +199,7 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 	for i := range n {
 		evs := byStation[i]
 		raw.Events[i] = sc.countDistinct(evs)
+		raw.BySeverity[i], raw.Censored[i] = tally(evs)
 		for j, ind := range cfg.Indicators {
 			var v float64
 			var note string
@@ -179,7 +207,10 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 			if ind.Measure == config.CriterionM {
 				v, note = criterionValue(ind, ser, raw.Stations[i])
 			} else {
-				v, note, fb = sc.indicator(ind, evs, attrCols[j], i, recordYears, cfg)
+				v, note, fb = sc.indicator(ind, evs, attrCols[j], i, recordYears, cfg, raw.SeverityKnown)
+				if ind.Measure.FromEvents() {
+					raw.Used[i][j] = sc.used
+				}
 			}
 			raw.Values[i][j], raw.Notes[i][j], raw.Fallback[i][j] = v, note, fb
 		}
@@ -298,19 +329,33 @@ func (s *stationIndex) of(id string) (int, bool) {
 type scratch struct {
 	ids    []string
 	sel    []*Event
+	rep    []*Event
 	a, b   []float64
 	obs    []bool
 	slopes []float64
+	used   int // distinct events of the last indicator
+	extra  int // copies added by replicate, per distinct event
 }
 
 // indicator computes indicator ind at station i from its events evs.
 // attrCol holds the indicator's attribute column for measure "attribute".
-func (sc *scratch) indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, recordYears []float64, cfg *config.Config) (v float64, note string, fallback bool) {
+// rated says whether the events carry a severity class.
+func (sc *scratch) indicator(ind config.Indicator, evs []*Event, attrCol []float64, i int, recordYears []float64, cfg *config.Config, rated bool) (v float64, note string, fallback bool) {
 	nan := math.NaN()
+	sc.used = 0
 	if ind.Measure == config.Attribute {
 		return transform(attrCol[i], ind.Transform)
 	}
-	sel := sc.filter(evs, ind)
+	floor := 1
+	if rated {
+		floor = ind.SeverityFloor()
+	}
+	sel := sc.filter(evs, ind, floor)
+	sc.used = sc.countDistinct(sel)
+	weighted := ind.EventWeights == config.WeightSeverity
+	if weighted && len(sel) > 0 {
+		sel = sc.replicate(sel)
+	}
 	switch ind.Measure {
 	case config.Frequency:
 		years := nan
@@ -322,10 +367,13 @@ func (sc *scratch) indicator(ind config.Indicator, evs []*Event, attrCol []float
 		if math.IsNaN(years) {
 			return nan, fmt.Sprintf("no length of record (attribute %q blank and inputs.record_years unset)", cfg.Inputs.RecordYearsColumn), false
 		}
-		return float64(sc.countDistinct(sel)) / years, "", false
+		if weighted {
+			return float64(sc.countDistinct(sel)+sc.extra) / years, "", false
+		}
+		return float64(sc.used) / years, "", false
 	}
 	if len(sel) == 0 {
-		return nan, "no " + describeFilter(ind) + " events", false
+		return nan, "no " + describeFilter(ind, floor) + " events", false
 	}
 	switch ind.Measure {
 	case config.Magnitude:
@@ -338,7 +386,7 @@ func (sc *scratch) indicator(ind config.Indicator, evs []*Event, attrCol []float
 		}
 		sc.a = mags
 		if len(mags) == 0 {
-			return nan, "no " + describeFilter(ind) + " events with a known peak departure", false
+			return nan, "no " + describeFilter(ind, floor) + " events with a known peak departure", false
 		}
 		return robust.SelectQuantile(mags, 0.5), "", false // the median
 	case config.Recovery:
@@ -377,6 +425,24 @@ func (sc *scratch) indicator(ind config.Indicator, evs []*Event, attrCol []float
 		sc.slopes = robust.PairwiseSlopes(sc.slopes, x, y)
 		if len(sc.slopes) == 0 {
 			return nan, "antecedent dryness is the same for every event; no slope", false
+		}
+		return robust.SelectQuantile(sc.slopes, 0.5), "", false
+	case config.ResponseSlope:
+		sign := harmfulSign(cfg, ind.Variables[0])
+		x, y := sc.a[:0], sc.b[:0]
+		for _, e := range sel {
+			if !math.IsNaN(e.DriverIntensity) && !math.IsNaN(e.PeakDeparture) {
+				x = append(x, e.DriverIntensity)
+				y = append(y, sign*e.PeakDeparture)
+			}
+		}
+		sc.a, sc.b = x, y
+		if n := distinctX(x, &sc.slopes); n < cfg.Memory.MinEvents {
+			return nan, fmt.Sprintf("%d events with a known driver intensity and peak departure, fewer than memory.min_events = %d", n, cfg.Memory.MinEvents), false
+		}
+		sc.slopes = robust.PairwiseSlopes(sc.slopes, x, y)
+		if len(sc.slopes) == 0 {
+			return nan, "the driver intensity is the same for every event; no slope", false
 		}
 		return robust.SelectQuantile(sc.slopes, 0.5), "", false
 	}
@@ -439,16 +505,18 @@ func harmfulSign(cfg *config.Config, variable string) float64 {
 	return v.Harmful.Sign()
 }
 
-// filter returns the events of evs that ind takes, in sc.sel unless it
-// takes them all.
-func (sc *scratch) filter(evs []*Event, ind config.Indicator) []*Event {
-	if len(ind.Kinds) == 0 && len(ind.Variables) == 0 {
+// filter returns the events of evs that ind takes, with a severity class
+// of at least floor where the kind is rated, in sc.sel unless it takes
+// them all.
+func (sc *scratch) filter(evs []*Event, ind config.Indicator, floor int) []*Event {
+	if len(ind.Kinds) == 0 && len(ind.Variables) == 0 && floor <= 1 {
 		return evs
 	}
 	out := sc.sel[:0]
 	for _, e := range evs {
 		if (len(ind.Kinds) == 0 || slices.Contains(ind.Kinds, e.Kind)) &&
-			(len(ind.Variables) == 0 || slices.Contains(ind.Variables, e.Variable)) {
+			(len(ind.Variables) == 0 || slices.Contains(ind.Variables, e.Variable)) &&
+			(floor <= 1 || !Rated(e.Kind) || e.Severity >= floor) {
 			out = append(out, e)
 		}
 	}
@@ -456,8 +524,71 @@ func (sc *scratch) filter(evs []*Event, ind config.Indicator) []*Event {
 	return out
 }
 
-func describeFilter(ind config.Indicator) string {
+// Rated reports whether events of kind carry a severity class: the kinds
+// rebound derives. Events of other kinds (the user's) are never dropped by
+// severity.
+func Rated(kind string) bool { return kind == "heatwave" || kind == "drought" || kind == "flood" }
+
+// weightOf is the number of times an event counts under event_weights =
+// "severity": its class, and 1 for unrated events.
+func weightOf(e *Event) int { return max(e.Severity, 1) }
+
+// replicate returns sel with each event repeated weightOf times, in
+// sc.rep, and sets sc.extra to the number of added copies per distinct
+// event summed (for the weighted frequency).
+func (sc *scratch) replicate(sel []*Event) []*Event {
+	out := sc.rep[:0]
+	for _, e := range sel {
+		for range weightOf(e) {
+			out = append(out, e)
+		}
+	}
+	sc.rep = out
+	// Weighted frequency: the sum over distinct events of their weight.
+	sc.extra = 0
+	seen := map[string]bool{}
+	for _, e := range sel {
+		if !seen[e.ID] {
+			seen[e.ID] = true
+			sc.extra += weightOf(e) - 1
+		}
+	}
+	return out
+}
+
+// distinctX returns the number of distinct values in x, using buf.
+func distinctX(x []float64, buf *[]float64) int {
+	b := append((*buf)[:0], x...)
+	slices.Sort(b)
+	*buf = b
+	return len(slices.Compact(b))
+}
+
+// tally counts evs' distinct events by kind and severity, and their rows
+// censored by reason.
+func tally(evs []*Event) (map[string][5]int, map[string]int) {
+	bySev, cens := map[string][5]int{}, map[string]int{}
+	seen := map[string]bool{}
+	for _, e := range evs {
+		if e.Censor != "" {
+			cens[e.Censor]++
+		}
+		if seen[e.ID] {
+			continue
+		}
+		seen[e.ID] = true
+		c := bySev[e.Kind]
+		c[min(max(e.Severity, 0), 4)]++
+		bySev[e.Kind] = c
+	}
+	return bySev, cens
+}
+
+func describeFilter(ind config.Indicator, floor int) string {
 	var parts []string
+	if floor > 1 {
+		parts = append(parts, SeverityNames[floor]+" or stronger")
+	}
 	if len(ind.Kinds) > 0 {
 		parts = append(parts, strings.Join(ind.Kinds, "/"))
 	}

@@ -82,19 +82,23 @@ func eventOptions(cfg *config.Config) events.Options {
 	o.Climate = events.Climate{FirstYear: e.ReferenceFirstYear, LastYear: e.ReferenceLastYear,
 		MinYears: e.MinYears, HalfWidth: e.HalfWindow, Smooth: e.SmoothDays}
 	o.Heat = events.HeatRule{Off: !e.Heatwave.Enabled, Variable: e.Heatwave.Variable, Percentile: e.Heatwave.Percentile,
-		MinDuration: e.Heatwave.MinDays, MaxGap: e.Heatwave.MaxGapDays}
+		MinDuration: e.Heatwave.MinDays, MaxGap: e.Heatwave.MaxGapDays, Months: e.Heatwave.Months}
 	o.Drought = events.DroughtRule{Off: !e.Drought.Enabled, Variable: e.Drought.Variable, Percentile: e.Drought.Percentile,
 		Threshold: events.Threshold(e.Drought.Threshold), MinDuration: e.Drought.MinDays, Pool: e.Drought.PoolDays,
-		MinDeficitFraction: e.Drought.MinDeficitFraction}
+		PoolRatio: e.Drought.PoolVolumeRatio, MinDeficitFraction: e.Drought.MinDeficitFraction, Months: e.Drought.Months}
 	o.Flood = events.FloodRule{Off: !e.Flood.Enabled, Variable: e.Flood.Variable, Percentile: e.Flood.Percentile,
-		Separation: e.Flood.SeparationDays, Trough: e.Flood.Trough}
+		Separation: e.Flood.SeparationDays, Trough: e.Flood.Trough, Months: e.Flood.Months}
 	o.Recovery = events.Recovery{Lag: e.Recovery.LagDays, Run: e.Recovery.RunDays, ToleranceSD: e.Recovery.ToleranceSD,
-		MaxGap: e.Recovery.MaxGapDays}
+		MaxGap: e.Recovery.MaxGapDays, CensorBy: events.CensorRule(e.Recovery.CensorBy), CensorMinSeverity: e.Recovery.CensorMinSeverity}
 	o.Antecedent = events.Antecedent{Measure: events.Dryness(e.Dryness.Measure), Days: e.Dryness.Days, MinCoverage: e.Dryness.MinCoverage}
+	o.Severity = events.Severity{FitMinYears: e.Flood.FitMinYears, YearCoverage: e.Flood.FitYearCoverage, WaterYear: e.WaterYear}
+	copy(o.Severity.ReturnPeriods[:], e.Flood.SeverityReturnPeriods)
+	copy(o.Severity.Probabilities[:], e.Drought.SeverityProbabilities)
 	o.Responses = nil
 	for _, v := range cfg.Variables {
 		if v.Harmful != "" {
-			o.Responses = append(o.Responses, events.Variable{Name: v.Name, Harmful: int(v.Harmful.Sign()), Tolerance: v.Tolerance})
+			o.Responses = append(o.Responses, events.Variable{Name: v.Name, Harmful: int(v.Harmful.Sign()), Tolerance: v.Tolerance,
+				Driver: v.DriverOf()})
 		}
 	}
 	return o
@@ -345,13 +349,17 @@ func splitJoined(err error) []error {
 const DerivedFile = "events derived from series"
 
 func derivedTable(stations []*StationSeries) *index.EventTable {
-	t := &index.EventTable{File: DerivedFile}
+	t := &index.EventTable{File: DerivedFile, Has: map[string]bool{}}
+	for _, c := range index.OptionalEventColumns {
+		t.Has[c] = true
+	}
 	for _, s := range stations {
 		for _, row := range s.Rows {
 			t.Events = append(t.Events, index.Event{
 				Station: row.Station, ID: row.EventID, Kind: row.Kind, Variable: row.Variable,
 				Start: row.Start, End: row.End, PeakDeparture: row.PeakDeparture,
 				RecoveryDays: float64(row.RecoveryDays), Recovered: row.Recovered, Dryness: row.AntecedentDryness,
+				Severity: row.Severity, DriverIntensity: row.DriverIntensity, Censor: string(row.Censor),
 			})
 		}
 	}

@@ -4,6 +4,7 @@ import (
 	"encoding/csv"
 	"io"
 	"strconv"
+	"strings"
 
 	"rebound/cmd/rebound/internal/pipeline"
 	"rebound/index"
@@ -13,9 +14,12 @@ import (
 // DerivedEventColumns are the columns of events.csv when events are derived
 // from series: the events-table columns rebound reads, then the details.
 var DerivedEventColumns = append(append([]string(nil), index.EventColumns...),
-	"mean_departure", "cumulative_departure", "peak_date", "time_to_peak_days", "censor_reason",
+	"severity", "severity_name", "driver_intensity",
+	"mean_departure", "cumulative_departure", "peak_date", "time_to_peak_days", "censor_reason", "censored_by",
 	"duration_days", "observed_days", "recovery_tolerance", "driver_peak", "driver_peak_date",
-	"heat_mean_intensity_degC", "heat_cumulative_intensity_degC_days", "drought_deficit_m3s_days", "drought_deficit_volume_m3")
+	"heat_mean_intensity_degC", "heat_cumulative_intensity_degC_days", "heat_threshold_ratio",
+	"drought_deficit_m3s_days", "drought_deficit_volume_m3", "drought_deficit_probability", "drought_duration_probability",
+	"flood_return_period_years", "flood_empirical_return_period_years", "overlaps", "peak_days_ceded")
 
 // WriteDerivedEvents writes the events derived from the series, station by
 // station in input order. The file can be given back to rebound as an
@@ -34,10 +38,13 @@ func WriteDerivedEvents(w io.Writer, r *pipeline.Run) error {
 			cw.Write([]string{
 				e.Station, e.EventID, e.Kind, e.Variable, e.Start.String(), e.End.String(),
 				Num(e.PeakDeparture), strconv.Itoa(e.RecoveryDays), strconv.FormatBool(e.Recovered), Num(e.AntecedentDryness),
+				strconv.Itoa(e.Severity), events.SeverityName(e.Severity), Num(e.DriverIntensity),
 				Num(e.MeanDeparture), Num(e.CumDeparture), date(e.TimeToPeak >= 0, e.PeakDate.String()), timeToPeak(e),
-				string(e.Censor), strconv.Itoa(e.Duration), strconv.Itoa(e.Observed), Num(e.Tolerance),
+				string(e.Censor), e.CensoredBy, strconv.Itoa(e.Duration), strconv.Itoa(e.Observed), Num(e.Tolerance),
 				Num(e.DriverPeak), date(e.Kind != "" && !isNaN(e.DriverPeak), e.DriverPeakDate.String()),
-				Num(e.MeanIntensity), Num(e.CumIntensity), Num(e.Deficit), Num(e.DeficitVolume),
+				Num(e.MeanIntensity), Num(e.CumIntensity), Num(e.HeatRatio),
+				Num(e.Deficit), Num(e.DeficitVolume), Num(e.DeficitProbability), Num(e.DurationProbability),
+				Num(e.ReturnPeriod), Num(e.EmpiricalReturnPeriod), strings.Join(e.Overlaps, ";"), strconv.Itoa(e.Shared),
 			})
 		}
 	}
