@@ -89,27 +89,44 @@ half_window_days = 5
 smooth_days = 31
 
 [events.heatwave]
-# Five days, as in the marine heat-wave definition, keeps the brief warm
-# spells of every season out of the demo (the default is 3).
+# Heat waves of the warm season only: a warm spell in January does not
+# stress a river the way July heat does. Every heat wave gets its Hobday
+# category (moderate, strong, severe, extreme) in events.csv, and the
+# indicators below count the strong ones and above unless they say
+# otherwise, so a station is not rated on how many mild spells it had.
 percentile = 90.0
-min_days = 5
+min_days = 3
 max_gap_days = 2
+months = [6, 7, 8, 9]
 
 [events.drought]
+# A threshold by calendar day, so the usual late-summer low flow is not
+# itself a drought; pooled by the inter-event time and volume criteria.
 percentile = 20.0
-threshold = "fixed"
+threshold = "daily"
 min_days = 5
 pool_days = 5
+pool_volume_ratio = 0.1
+min_deficit_fraction = 0.005
+severity_probabilities = [0.5, 0.8, 0.95]
 
 [events.flood]
+# Flood severity is the return period of the peak in a GEV fitted by
+# L-moments to each station's 15 annual maxima.
 percentile = 95.0
 separation_days = 7
 trough = 0.75
+severity_return_periods = [2.0, 10.0, 50.0]
+fit_min_years = 10
 
 [events.recovery]
+# A recovery is cut short only by an event of the same kind or a strong
+# one, not by a minor flood that happens to follow a heat wave.
 lag_days = 14
 run_days = 7
 tolerance_sd = 1.0
+censor_by = "same_kind_or_severe"
+censor_min_severity = 2
 
 [events.dryness]
 measure = "fraction"
@@ -123,11 +140,21 @@ limit = 18.0
 
 [[indicator]]
 name = "heat_warming"
-label = "Median peak warming in heat waves (°C)"
+label = "Median peak warming in strong heat waves (°C)"
 measure = "magnitude"
 kinds = ["heatwave"]
 variables = ["water_temperature"]
-weight = 0.25
+min_severity = 2
+weight = 0.20
+
+[[indicator]]
+name = "heat_response"
+label = "Water warming per °C of air-temperature anomaly, all heat waves (°C/°C)"
+measure = "response_slope"
+kinds = ["heatwave"]
+variables = ["water_temperature"]
+min_severity = 1
+weight = 0.05
 
 [[indicator]]
 name = "recovery"
@@ -155,10 +182,19 @@ weight = 0.10
 
 [[indicator]]
 name = "oxygen_sag"
-label = "Median dissolved-oxygen drop, all events (mg/L)"
+label = "Median dissolved-oxygen drop in strong heat waves (mg/L)"
 measure = "magnitude"
+kinds = ["heatwave"]
 variables = ["dissolved_oxygen"]
-weight = 0.10
+weight = 0.05
+
+[[indicator]]
+name = "flood_oxygen"
+label = "Median dissolved-oxygen drop in floods of 2 years and more (mg/L)"
+measure = "magnitude"
+kinds = ["flood"]
+variables = ["dissolved_oxygen"]
+weight = 0.05
 
 [[indicator]]
 name = "criterion_reliability"
@@ -282,6 +318,23 @@ The story planted in the data (rebound has to find it on its own):
   Lowmere    lowland agricultural rivers: slow recovery and strong drought
              memory; the July 2023 heat wave after the 2020-2022 drought
              warms them far more than the longer heat wave of 2018 did.
+
+What severity adds. Every derived event in out/events.csv has a severity
+class (1 moderate, 2 strong, 3 severe, 4 extreme): heat waves by their
+Hobday et al. (2018) category, floods by the return period of their peak in
+a GEV fitted to the station's annual maxima, droughts by how their deficit
+and duration rank among the station's droughts. Heat waves are counted in
+June-September only, and droughts against a threshold for each calendar
+day, so neither a mild winter nor the usual late-summer low flow counts as
+a disturbance. The magnitude and recovery indicators take the strong events
+and above: the spring-fed Fenwater creeks and the tailwater are compared on
+the heat waves that matter, not on how many mild ones each happened to
+have. The tailwater is the clearest case: mild heat waves leave it cold,
+the strong ones of 2018 and 2023 warm it by 9 to 11 degrees C for weeks,
+and it falls well down the ranking once those are what its median is taken
+over. heat_response compares stations per degree of air-temperature
+anomaly, whatever heat waves each saw; flood_oxygen scores the urban sewer
+overflows in floods of two years and more.
 
 The ranking is a screening aid, not a regulatory determination.
 `

@@ -169,7 +169,7 @@ func TestDemoMatchesCSV(t *testing.T) {
 	if len(charts) != 4 {
 		t.Fatalf("%d charts, want 4: %v", len(charts), charts)
 	}
-	for _, want := range []string{"'Ranking'!$E$2:$E$33", "'Sensitivity'!$F$23:$F$54", "'Sensitivity'!$G$2:$G$9", "'Clusters'!"} {
+	for _, want := range []string{"'Ranking'!$E$2:$E$33", "'Sensitivity'!$F$27:$F$58", "'Sensitivity'!$G$2:$G$11", "'Clusters'!"} {
 		found := false
 		for _, refs := range charts {
 			for _, rf := range refs {
