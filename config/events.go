@@ -120,7 +120,7 @@ func DefaultEvents() *Events {
 			SeverityReturnPeriods: []float64{2, 10, 50}, FitMinYears: 10, FitYearCoverage: 0.9},
 		Recovery: RecoveryRule{LagDays: 14, RunDays: 7, ToleranceSD: 1, MaxGapDays: 3,
 			CensorBy: "same_kind_or_severe", CensorMinSeverity: 2},
-		Dryness:  DrynessRule{Measure: Fraction, Days: 365, MinCoverage: 0.8},
+		Dryness: DrynessRule{Measure: Fraction, Days: 365, MinCoverage: 0.8},
 	}
 }
 

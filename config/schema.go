@@ -325,7 +325,7 @@ const (
 	// driver's intensity: the response per unit of disturbance.
 	ResponseSlope Measure = "response_slope"
 	Frequency     Measure = "frequency"
-	Attribute Measure = "attribute"
+	Attribute     Measure = "attribute"
 	// CriterionM is a station's performance against a [[criterion]].
 	CriterionM Measure = "criterion"
 )
