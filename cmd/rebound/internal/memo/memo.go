@@ -35,7 +35,7 @@ func Render(r *pipeline.Run, man *report.Manifest) (memo []byte, figures map[str
 
 func render(r *pipeline.Run, man *report.Manifest, e view.Extras) ([]byte, map[string][]byte, error) {
 	m := &writer{r: r, man: man, e: e, figs: map[string][]byte{}}
-	for _, section := range []func() error{m.head, m.purpose, m.data, m.method, m.ranking, m.robustness, m.clusters, m.findings, m.limitations} {
+	for _, section := range []func() error{m.head, m.purpose, m.data, m.method, m.ranking, m.severity, m.robustness, m.clusters, m.findings, m.limitations} {
 		if err := section(); err != nil {
 			return nil, nil, err
 		}
@@ -267,6 +267,58 @@ func (m *writer) ranking() error {
 	if flags := flagWords(res.Flags); flags != "" {
 		m.para("Flags: %s.", flags)
 	}
+	return nil
+}
+
+// severity says how many events of each class every listed station had
+// and which of them each event indicator counted.
+func (m *writer) severity() error {
+	r := m.r
+	if r.Events == nil || !r.Raw.SeverityKnown || r.Config.Events == nil {
+		return nil
+	}
+	var js []int
+	for j, ind := range r.Raw.Indicators {
+		if ind.Measure.FromEvents() {
+			js = append(js, j)
+		}
+	}
+	if len(js) == 0 {
+		return nil
+	}
+	m.p("## Disturbances by severity\n\n")
+	m.para("Every derived event has a severity class: heat waves by the category of Hobday et al. (2018), floods by the return period of their peak in a GEV fitted by L-moments to the station's annual maxima (strong from %s years), droughts by the rank of their deficit and duration among the station's droughts (strong from a non-exceedance probability of %s). The counts below are moderate/strong/severe/extreme. The event indicators count:",
+		report.Num(r.Config.Events.Flood.SeverityReturnPeriods[0]), report.Num(r.Config.Events.Drought.SeverityProbabilities[0]))
+	for _, j := range js {
+		m.p("- %s: %s;\n", r.Raw.Indicators[j].Name, report.FloorText(r, j))
+	}
+	m.p("\n")
+	m.p("| Station | Heat waves | Droughts | Floods |")
+	for _, j := range js {
+		m.p(" %s (events) |", esc(r.Raw.Indicators[j].Name))
+	}
+	m.p("\n|---|---|---|---|")
+	for range js {
+		m.p("---:|")
+	}
+	m.p("\n")
+	order := r.Result.Order
+	shown := order
+	if len(order) > TableMax {
+		shown = append(slices.Clone(order[:TableMax/2]), order[len(order)-TableMax/2:]...)
+	}
+	for _, i := range shown {
+		m.p("| %s |", esc(r.Raw.Stations[i]))
+		for _, k := range report.SeverityKinds {
+			m.p(" %s |", report.SeverityCounts(r, i, k))
+		}
+		for _, j := range js {
+			m.p(" %d |", r.Raw.Used[i][j])
+		}
+		m.p("\n")
+	}
+	m.p("\n")
+	m.para("The workbook's Severity sheet lists every station; its Events sheet and events.csv give each event's class and the numbers it rests on.")
 	return nil
 }
 

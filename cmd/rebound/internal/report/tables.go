@@ -83,8 +83,18 @@ func IndicatorStatus(r *pipeline.Run, i, j int) string {
 	return "ok"
 }
 
+// EffectiveFloor is the least severity class indicator j counted: its
+// min_severity, or 1 when the events carry no severity.
+func EffectiveFloor(r *pipeline.Run, j int) int {
+	if !r.Raw.SeverityKnown {
+		return 1
+	}
+	return r.Raw.Indicators[j].SeverityFloor()
+}
+
 // IndicatorColumns are the columns of indicators.csv.
-var IndicatorColumns = []string{"station", "indicator", "measure", "raw", "normalized", "weight", "contribution", "status", "note"}
+var IndicatorColumns = []string{"station", "indicator", "measure", "raw", "normalized", "weight", "contribution", "status", "note",
+	"min_severity", "event_weights", "events_used", "censored_record_end", "censored_gap", "censored_next_event"}
 
 // WriteIndicators writes indicators.csv in long form: one row per station
 // and indicator, stations in rank order. status is ok, missing (weight
@@ -95,11 +105,18 @@ func WriteIndicators(w io.Writer, r *pipeline.Run) error {
 	cw.Write(IndicatorColumns)
 	res := r.Result
 	for _, i := range res.Order {
+		cens := r.Raw.Censored[i]
 		for j, ind := range r.Raw.Indicators {
 			status := IndicatorStatus(r, i, j)
+			floor, used := "", ""
+			if ind.Measure.FromEvents() {
+				floor, used = strconv.Itoa(EffectiveFloor(r, j)), strconv.Itoa(r.Raw.Used[i][j])
+			}
 			cw.Write([]string{
 				r.Raw.Stations[i], ind.Name, string(ind.Measure), Num(r.Raw.Values[i][j]), Num(res.Normalized[i][j]),
 				Num(r.Weights.W[j]), Num(res.Contribution[i][j]), status, r.Raw.Notes[i][j],
+				floor, ind.EventWeights, used,
+				strconv.Itoa(cens["record_end"]), strconv.Itoa(cens["gap"]), strconv.Itoa(cens["next_event"]),
 			})
 		}
 	}

@@ -14,6 +14,7 @@ import (
 	"rebound/cmd/rebound/internal/report"
 	"rebound/cmd/rebound/internal/view"
 	"rebound/config"
+	"rebound/index"
 	"rebound/index/calendar"
 )
 
@@ -25,6 +26,7 @@ const (
 	SheetIndicators  = "Indicators"
 	SheetWeights     = "Weights"
 	SheetEvents      = "Events"
+	SheetSeverity    = "Severity"
 	SheetCriteria    = "Criteria"
 	SheetClusters    = "Clusters"
 	SheetProfiles    = "Cluster profiles"
@@ -61,6 +63,7 @@ func render(r *pipeline.Run, man *report.Manifest, e view.Extras) ([]byte, error
 		{SheetIndicators, w.indicators, true},
 		{SheetWeights, w.weights, true},
 		{SheetEvents, w.events, r.Events != nil && len(r.Events.Events) > 0},
+		{SheetSeverity, w.severity, r.Events != nil && r.Raw.SeverityKnown},
 		{SheetCriteria, w.criteria, hasCriteria(r)},
 		{SheetClusters, w.clusters, e.Clusters != nil},
 		{SheetProfiles, w.profiles, e.Clusters != nil},
@@ -517,7 +520,9 @@ func (w *writer) events() {
 	})
 	cols := []column{{"Station", 11, fmtText}, {"Event", 16, fmtText}, {"Kind", 10, fmtText}, {"Variable", 22, fmtText},
 		{"Start", 11, fmtDate}, {"End", 11, fmtDate}, {"Peak departure (variable units)", 13, fmt2}, {"Units", 8, fmtText},
-		{"Recovery (days after the end)", 12, fmtInt}, {"Recovered", 10, fmtText}, {"Antecedent dryness", 11, fmt3}}
+		{"Recovery (days after the end)", 12, fmtInt}, {"Recovered", 10, fmtText}, {"Antecedent dryness", 11, fmt3},
+		{"Severity class (0 unrated, 1 moderate – 4 extreme)", 12, fmtInt}, {"Severity", 10, fmtText},
+		{"Driver intensity", 10, fmt3}, {"Censored by", 12, fmtText}}
 	var rows [][]any
 	for _, k := range idx[:min(len(idx), MaxEventRows)] {
 		e := &evs[k]
@@ -526,13 +531,52 @@ func (w *writer) events() {
 			rec = "no (censored)"
 		}
 		rows = append(rows, []any{e.Station, e.ID, e.Kind, e.Variable, excelDate(e.Start), excelDate(e.End),
-			nanBlank(e.PeakDeparture), units[e.Variable], nanBlank(e.RecoveryDays), rec, nanBlank(e.Dryness)})
+			nanBlank(e.PeakDeparture), units[e.Variable], nanBlank(e.RecoveryDays), rec, nanBlank(e.Dryness),
+			e.Severity, index.SeverityNames[min(max(e.Severity, 0), 4)], nanBlank(e.DriverIntensity), e.Censor})
 	}
 	w.table(s, cols, rows)
 	if len(evs) > MaxEventRows {
 		note := fmt.Sprintf("The table has %d rows; the first %d (by station and start) are shown. The whole table is in %s.", len(evs), MaxEventRows, r.Events.File)
 		w.str(s, cell(len(cols)+2, 1), note)
 	}
+}
+
+// severity lists every station's events by kind and class, and how many
+// events each event indicator counted.
+func (w *writer) severity() {
+	const s = SheetSeverity
+	r := w.r
+	cols := []column{{"Station", 11, fmtText}}
+	for _, k := range report.SeverityKinds {
+		for _, c := range index.SeverityNames[1:] {
+			cols = append(cols, column{k + " " + c, 9, fmtInt})
+		}
+		cols = append(cols, column{k + " unrated", 9, fmtInt})
+	}
+	var js []int
+	for j, ind := range r.Raw.Indicators {
+		if ind.Measure.FromEvents() {
+			js = append(js, j)
+			cols = append(cols, column{ind.Name + ": events counted (" + report.FloorText(r, j) + ")", 14, fmtInt})
+		}
+	}
+	cols = append(cols, column{"Recoveries censored: end of record", 11, fmtInt}, column{"censored: data gap", 11, fmtInt},
+		column{"censored: next event", 11, fmtInt})
+	var rows [][]any
+	for _, i := range r.Result.Order {
+		row := []any{r.Raw.Stations[i]}
+		for _, k := range report.SeverityKinds {
+			c := r.Raw.BySeverity[i][k]
+			row = append(row, c[1], c[2], c[3], c[4], c[0])
+		}
+		for _, j := range js {
+			row = append(row, r.Raw.Used[i][j])
+		}
+		cens := r.Raw.Censored[i]
+		row = append(row, cens["record_end"], cens["gap"], cens["next_event"])
+		rows = append(rows, row)
+	}
+	w.table(s, cols, rows)
 }
 
 func (w *writer) criteria() {

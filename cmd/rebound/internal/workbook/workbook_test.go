@@ -94,13 +94,34 @@ func TestDemoMatchesCSV(t *testing.T) {
 	}
 	f := open(t, data)
 
-	want := []string{SheetSummary, SheetRanking, SheetIndicators, SheetWeights, SheetEvents, SheetCriteria,
+	want := []string{SheetSummary, SheetRanking, SheetIndicators, SheetWeights, SheetEvents, SheetSeverity, SheetCriteria,
 		SheetClusters, SheetProfiles, SheetSensitivity, SheetMethod, SheetInputs, SheetWarnings}
 	if !hasCriteria(r) {
 		want = slices.DeleteFunc(want, func(s string) bool { return s == SheetCriteria })
 	}
 	if got := f.GetSheetList(); !slices.Equal(got, want) {
 		t.Errorf("sheets %q, want %q", got, want)
+	}
+	// The Severity sheet's heat-wave counts of the first station agree with
+	// the distinct heat waves of the events table.
+	sevRows, err := f.GetRows(SheetSeverity)
+	if err != nil || len(sevRows) < 2 {
+		t.Fatalf("Severity sheet: %v, %d rows", err, len(sevRows))
+	}
+	st := sevRows[1][0]
+	ids := map[string]bool{}
+	for _, e := range r.Events.Events {
+		if e.Station == st && e.Kind == "heatwave" {
+			ids[e.ID] = true
+		}
+	}
+	sum := 0
+	for _, c := range sevRows[1][1:6] {
+		n, _ := strconv.Atoi(c)
+		sum += n
+	}
+	if sum != len(ids) || sum == 0 {
+		t.Errorf("Severity sheet: %s has %d heat waves by class, the events table %d", st, sum, len(ids))
 	}
 
 	// Ranking: the same rows as ranking.csv.
