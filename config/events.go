@@ -284,9 +284,9 @@ func (c *Config) validateEvents(bad reportFunc) {
 		for i, m := range ms {
 			switch {
 			case m < 1 || m > 12:
-				bad(fmt.Sprintf("%s[%d]", key, i+1), "want a month 1-12, got %d", m)
+				bad(key, "element %d: want a month 1-12, got %d", i+1, m)
 			case seen[m]:
-				bad(fmt.Sprintf("%s[%d]", key, i+1), "month %d is listed twice", m)
+				bad(key, "element %d: month %d is listed twice", i+1, m)
 			}
 			seen[m] = true
 		}

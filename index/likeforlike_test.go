@@ -163,3 +163,54 @@ func TestResponseSlopeLikeForLike(t *testing.T) {
 		t.Errorf("magnitudes %v: want station B's well above A's (it faced hotter heat waves)", m)
 	}
 }
+
+// TestSeverityColumn: the optional columns are read, a bad class is an
+// error at its line and column (counted by hand), and an explicit severity floor on a table
+// without the column is an error naming the key.
+func TestSeverityColumn(t *testing.T) {
+	head := "station,event,kind,variable,start,end,peak_departure,recovery_days,recovered,antecedent_dryness,severity,driver_intensity,censor_reason\n"
+	tab, errs := index.ReadEvents(strings.NewReader(head+
+		"S0,H1,heatwave,water_temperature,2019-07-01,2019-07-05,2,4,true,,strong,3.5,\n"+
+		"S0,H2,heatwave,water_temperature,2020-07-01,2020-07-05,2,4,false,,1,2.5,next_event\n"), "e.csv")
+	if errs != nil {
+		t.Fatal(errs)
+	}
+	if e := tab.Events[0]; e.Severity != 2 || e.DriverIntensity != 3.5 || !tab.Has["severity"] {
+		t.Errorf("row 1: %+v", e)
+	}
+	if e := tab.Events[1]; e.Severity != 1 || e.Censor != "next_event" {
+		t.Errorf("row 2: %+v", e)
+	}
+	_, errs = index.ReadEvents(strings.NewReader(head+
+		"S0,H1,heatwave,water_temperature,2019-07-01,2019-07-05,2,4,true,,5,3.5,later\n"), "e.csv")
+	var got []string
+	for _, e := range errs {
+		got = append(got, e.Error())
+	}
+	all := strings.Join(got, "\n")
+	for _, want := range []string{
+		`e.csv:2:66: severity: want a severity class 0-4 or one of ["unrated" "moderate" "strong" "severe" "extreme"], got "5"`,
+		`e.csv:2:72: censor_reason: want blank or one of ["record_end" "gap" "next_event"], got "later"`,
+	} {
+		if !strings.Contains(all, want) {
+			t.Errorf("missing %q in:\n%s", want, all)
+		}
+	}
+
+	plain, errs := index.ReadEvents(strings.NewReader(
+		"station,event,kind,variable,start,end,peak_departure,recovery_days,recovered,antecedent_dryness\n"+
+			"S0,H1,heatwave,water_temperature,2019-07-01,2019-07-05,2,4,true,\n"), "plain.csv")
+	if errs != nil {
+		t.Fatal(errs)
+	}
+	attrs, _ := attributes.ReadCSV(strings.NewReader("station,name,latitude,longitude\nS0,S0,45,-30\n"), "stations.csv")
+	cfg := config.Default()
+	cfg.File = "study.toml"
+	three := 3
+	cfg.Indicators = []config.Indicator{{Name: "heat", Measure: config.Magnitude, Kinds: []string{"heatwave"},
+		Variables: []string{"water_temperature"}, Better: config.Lower, MinSeverity: &three}}
+	if _, errs := index.Compute(plain, attrs, cfg, nil); len(errs) == 0 ||
+		!strings.Contains(errs[0].Error(), "indicator[1].min_severity: plain.csv has no severity column") {
+		t.Errorf("explicit floor without the column: %v", errs)
+	}
+}
