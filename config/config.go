@@ -35,6 +35,7 @@ func Default() *Config {
 		Aggregation: Aggregation{Method: Arithmetic, Floor: 0.1},
 		Missing:     Missing{Policy: Renormalize, MinEvents: 3},
 		Memory:      Memory{MinEvents: 5, Dryness: Fraction},
+		Comparison:  Comparison{Basis: BasisStation, MinShare: 0.5},
 		Output:      Output{Dir: "out", Print: 10},
 		Events:      DefaultEvents(),
 		Clustering:  DefaultClustering(),
@@ -349,6 +350,12 @@ func (c *Config) Validate() []error {
 	}
 	if c.Memory.MinEvents < 3 {
 		bad("memory.min_events", "want >= 3 (a slope from fewer events means little), got %d", c.Memory.MinEvents)
+	}
+	if msg := choiceMsg(c.Comparison.Basis, []string{BasisStation, BasisShared}); msg != "" {
+		bad("comparison.basis", "%s", msg)
+	}
+	if !(c.Comparison.MinShare > 0 && c.Comparison.MinShare <= 1) {
+		bad("comparison.min_share", "want a share of stations in (0, 1], got %g", c.Comparison.MinShare)
 	}
 	if c.Output.Print < 0 {
 		bad("output.print", "want >= 0, got %d", c.Output.Print)

@@ -25,6 +25,7 @@ type Config struct {
 	Aggregation   Aggregation   `toml:"aggregation"`
 	Missing       Missing       `toml:"missing"`
 	Memory        Memory        `toml:"memory"`
+	Comparison    Comparison    `toml:"comparison"`
 	Output        Output        `toml:"output"`
 
 	// Events configures deriving events from daily series ([events]);
@@ -332,6 +333,24 @@ const (
 
 // Measures lists every measure.
 var Measures = []Measure{Magnitude, Recovery, MemoryM, ResponseSlope, Frequency, Attribute, CriterionM}
+
+// Comparison says which disturbances the stations are compared on.
+type Comparison struct {
+	// Basis is "station" (every station on its own events) or "shared"
+	// (only the events that overlap a regional event: a run of days on
+	// which at least MinShare of the stations of the normalisation group
+	// with a record were in an event of that kind).
+	Basis string `toml:"basis"`
+	// MinShare is the share of stations, in (0, 1], that makes an event
+	// regional.
+	MinShare float64 `toml:"min_share"`
+}
+
+// Comparison bases.
+const (
+	BasisStation = "station"
+	BasisShared  = "shared"
+)
 
 // Event weightings.
 const (

@@ -257,6 +257,17 @@ policy = "renormalize"
 # Stations with fewer events than this are flagged "few_events".
 min_events = 3
 
+[comparison]
+# "station" scores every station on its own events. "shared" scores the
+# stations only on the regional events, so that each is measured on the same
+# storms, droughts and heat waves: an event counts when it overlaps a run of
+# days on which at least min_share of the stations (of the normalisation
+# group, with a record on those days) were in an event of the same kind.
+# With normalization.scope = "cluster" the regional events are found over
+# all stations. The memo says which basis was used.
+basis = "station"
+min_share = 0.5
+
 [memory]
 # Fewest events with a known antecedent dryness for a drought-memory slope.
 min_events = 5

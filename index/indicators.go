@@ -50,6 +50,9 @@ type Raw struct {
 	// SeverityKnown is false when the events table has no severity
 	// column: every event then counts whatever min_severity says.
 	SeverityKnown bool
+	// Regional are the regional events when comparison.basis = "shared":
+	// the event indicators then count only station events overlapping one.
+	Regional []RegionalEvent
 	// Warnings are facts the reader of the results should know.
 	Warnings []error
 }
@@ -196,6 +199,15 @@ func Compute(events *EventTable, attrs *attributes.Table, cfg *config.Config, se
 		}
 	}
 	var sc scratch
+	if cfg.Comparison.Basis == config.BasisShared && events != nil {
+		groups := make([]string, n)
+		if cfg.Normalization.Scope == config.ScopeGroup {
+			copy(groups, raw.Groups)
+		}
+		raw.Regional = markRegional(byStation, groups, cfg.Comparison.MinShare)
+		sc.shared = true
+		raw.Warnings = append(raw.Warnings, &Warning{Msg: fmt.Sprintf("comparison.basis = \"shared\": stations are scored only on the events that overlap a regional event (%s), one on which at least %g of the stations were in an event of the kind", describeRegional(raw.Regional), cfg.Comparison.MinShare)})
+	}
 	for i := range n {
 		evs := byStation[i]
 		raw.Events[i] = sc.countDistinct(evs)
@@ -333,8 +345,9 @@ type scratch struct {
 	a, b   []float64
 	obs    []bool
 	slopes []float64
-	used   int // distinct events of the last indicator
-	extra  int // copies added by replicate, per distinct event
+	used   int  // distinct events of the last indicator
+	extra  int  // copies added by replicate, per distinct event
+	shared bool // only events with a regional event count
 }
 
 // indicator computes indicator ind at station i from its events evs.
@@ -509,12 +522,12 @@ func harmfulSign(cfg *config.Config, variable string) float64 {
 // of at least floor where the kind is rated, in sc.sel unless it takes
 // them all.
 func (sc *scratch) filter(evs []*Event, ind config.Indicator, floor int) []*Event {
-	if len(ind.Kinds) == 0 && len(ind.Variables) == 0 && floor <= 1 {
+	if len(ind.Kinds) == 0 && len(ind.Variables) == 0 && floor <= 1 && !sc.shared {
 		return evs
 	}
 	out := sc.sel[:0]
 	for _, e := range evs {
-		if (len(ind.Kinds) == 0 || slices.Contains(ind.Kinds, e.Kind)) &&
+		if (!sc.shared || e.Regional != "") && (len(ind.Kinds) == 0 || slices.Contains(ind.Kinds, e.Kind)) &&
 			(len(ind.Variables) == 0 || slices.Contains(ind.Variables, e.Variable)) &&
 			(floor <= 1 || !Rated(e.Kind) || e.Severity >= floor) {
 			out = append(out, e)

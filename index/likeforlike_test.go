@@ -214,3 +214,49 @@ func TestSeverityColumn(t *testing.T) {
 		t.Errorf("explicit floor without the column: %v", errs)
 	}
 }
+
+// TestSharedBasis: by hand. Three stations with a record through 2019
+// (marked by user events on its first and last day). S0 and S1 have heat
+// waves on 07-01..05 and 07-03..08, S2 one on 08-01..03. With min_share
+// 0.5 the regional heat wave is 07-03..05 (two of three stations); S2's
+// August heat wave is its own and does not count under basis = "shared".
+func TestSharedBasis(t *testing.T) {
+	rows := "station,event,kind,variable,start,end,peak_departure,recovery_days,recovered,antecedent_dryness,severity\n"
+	for _, s := range []string{"S0", "S1", "S2"} {
+		rows += s + ",M1,marker,water_temperature,2019-01-01,2019-01-01,0,1,true,,0\n"
+		rows += s + ",M2,marker,water_temperature,2019-12-31,2019-12-31,0,0,false,,0\n"
+	}
+	rows += "S0,H1,heatwave,water_temperature,2019-07-01,2019-07-05,2,4,true,,2\n"
+	rows += "S1,H1,heatwave,water_temperature,2019-07-03,2019-07-08,3,4,true,,2\n"
+	rows += "S2,H1,heatwave,water_temperature,2019-08-01,2019-08-03,4,4,true,,2\n"
+	tab, errs := index.ReadEvents(strings.NewReader(rows), "e.csv")
+	if errs != nil {
+		t.Fatal(errs)
+	}
+	attrs, _ := attributes.ReadCSV(strings.NewReader("station,name,latitude,longitude\nS0,a,45,-30\nS1,b,45,-31\nS2,c,45,-32\n"), "stations.csv")
+	cfg := config.Default()
+	cfg.Comparison = config.Comparison{Basis: config.BasisShared, MinShare: 0.5}
+	cfg.Indicators = []config.Indicator{{Name: "heat", Measure: config.Magnitude, Kinds: []string{"heatwave"},
+		Variables: []string{"water_temperature"}, Better: config.Lower, EventWeights: config.WeightNone}}
+	raw, errs := index.Compute(tab, attrs, cfg, nil)
+	if errs != nil {
+		t.Fatal(errs)
+	}
+	var hw []index.RegionalEvent
+	for _, r := range raw.Regional {
+		if r.Kind == "heatwave" {
+			hw = append(hw, r)
+		}
+	}
+	if len(hw) != 1 || hw[0].Start.String() != "2019-07-03" || hw[0].End.String() != "2019-07-05" || hw[0].Stations != 2 {
+		t.Fatalf("regional heat waves %+v, want one, 2019-07-03..05, 2 stations", hw)
+	}
+	if v := raw.Values; v[0][0] != 2 || v[1][0] != 3 || !math.IsNaN(v[2][0]) {
+		t.Errorf("shared-basis magnitudes %v %v %v, want 2 3 NaN", v[0][0], v[1][0], v[2][0])
+	}
+	cfg.Comparison.Basis = config.BasisStation
+	raw, _ = index.Compute(tab, attrs, cfg, nil)
+	if raw.Values[2][0] != 4 {
+		t.Errorf("station basis: S2 %v, want 4", raw.Values[2][0])
+	}
+}

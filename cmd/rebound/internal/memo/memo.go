@@ -178,9 +178,20 @@ func (m *writer) method() error {
 	default:
 		m.para("A station missing an indicator is scored on the others, with their weights rescaled to sum to one (flag `missing:`).")
 	}
+	if r.Events != nil {
+		if cfg.Comparison.Basis == config.BasisShared {
+			m.para("Basis of comparison: shared events. Each station is scored only on the disturbances that also reached at least %s of the compared stations on the same days (the regional events: %d found), so every station is measured on the same storms, droughts and heat waves.",
+				pct(cfg.Comparison.MinShare), len(r.Raw.Regional))
+		} else {
+			m.para("Basis of comparison: each station's own events. Stations may have faced disturbances of different strength; the severity floors below, and the per-degree response where it is an indicator, keep the comparison like for like.")
+		}
+	}
 	m.para("The workbook's Method sheet gives every formula with the values this run used.")
 	return nil
 }
+
+// pct writes a share as a percentage.
+func pct(x float64) string { return fmt.Sprintf("%.0f%%", 100*x) }
 
 func (m *writer) ranking() error {
 	r, res, sv := m.r, m.r.Result, m.e.Sensitivity
