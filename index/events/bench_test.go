@@ -79,3 +79,36 @@ func BenchmarkClimatology(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkSeverity measures what rating adds to one station-30-years of
+// Analyze: the annual maxima, the GEV fit and the return periods of the
+// floods, and the probabilities of the droughts (the heat-wave category is
+// a ratio taken in the detection loop). The target is at most 10% of
+// BenchmarkAnalyze/years=30.
+func BenchmarkSeverity(b *testing.B) {
+	s := synthStation(30, 1)
+	o := DefaultOptions()
+	o.Climate.MinYears = 1
+	r, err := Analyze(s, nil, o)
+	if err != nil {
+		b.Fatal(err)
+	}
+	var floods, droughts []Event
+	for _, e := range r.Events {
+		switch e.Kind {
+		case FloodKind:
+			floods = append(floods, e)
+		case DroughtKind:
+			droughts = append(droughts, e)
+		}
+	}
+	q := s.Var("discharge")
+	o = o.withDefaults()
+	b.ReportAllocs()
+	for b.Loop() {
+		if err := rateFloods(floods, q, s.Start, o.Severity); err != nil {
+			b.Fatal(err)
+		}
+		rateDroughts(droughts, o.Severity.Probabilities)
+	}
+}
