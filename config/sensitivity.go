@@ -40,6 +40,11 @@ type Sensitivity struct {
 	Normalizations []NormMethod `toml:"normalizations"`
 	Aggregations   []AggMethod  `toml:"aggregations"`
 	Scopes         []Scope      `toml:"scopes"`
+	// Severities are severity floors (1–4) to try as structural
+	// alternatives: each recomputes the event indicators (but the slopes)
+	// counting the events of that class and above, with the configured
+	// normalisation, aggregation and scope. Empty means none.
+	Severities []int `toml:"severities"`
 	// Sobol configures the variance-based indices of the weights.
 	Sobol SobolIndices `toml:"sobol"`
 	// Workers is the number of goroutines; 0 means one per core. The
@@ -204,6 +209,13 @@ func (c *Config) validateSensitivity(bad reportFunc) {
 			bad("sensitivity.aggregations", "\"geometric\" needs aggregation.floor strictly between 0 and 1, got %g", c.Aggregation.Floor)
 		}
 	}
+	for i, v := range s.Severities {
+		if v < 1 || v > 4 {
+			bad("sensitivity.severities", "element %d: want a severity class 1-4 (1 moderate = every event, 2 strong, 3 severe, 4 extreme), got %d", i+1, v)
+		} else if slices.Contains(s.Severities[:i], v) {
+			bad("sensitivity.severities", "%d is listed twice", v)
+		}
+	}
 	for i, sc := range s.Scopes {
 		if msg := choiceMsg(string(sc), strs(Scopes)); msg != "" {
 			bad("sensitivity.scopes", "%s", msg)
@@ -331,6 +343,9 @@ deltas = [0.2, 0.5]
 normalizations = []
 aggregations = []
 scopes = []
+# Severity floors to try instead of each event indicator's min_severity (the
+# slopes keep theirs), e.g. [1, 3]: every event, or severe ones and above.
+severities = []
 # Goroutines for the analysis (0 = one per core); results do not depend
 # on it.
 workers = 0

@@ -284,6 +284,10 @@ sampling = "dirichlet"
 concentration = 50.0
 top_n = 4
 deltas = [0.2, 0.5]
+# A severity floor tried as a structural alternative: every event, instead
+# of each indicator's min_severity. (No demo heat wave reaches category III,
+# so a floor of 3 would leave heat_warming without a value anywhere.)
+severities = [1]
 
 [sensitivity.sobol]
 enabled = true

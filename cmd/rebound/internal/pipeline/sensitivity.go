@@ -48,6 +48,9 @@ type Scenario struct {
 	Normalization config.NormMethod // replaces normalization.method
 	Aggregation   config.AggMethod
 	Scope         config.Scope
+	// MinSeverity, when not 0, replaces the min_severity of every event
+	// indicator but the slopes.
+	MinSeverity int
 }
 
 // Skipped is a combination the structural analysis did not score.
@@ -61,7 +64,11 @@ func (s Skipped) String() string { return s.Name() + ": " + s.Reason }
 // Name names the scenario as "normalisation/aggregation/scope", e.g.
 // "minmax/arithmetic/all".
 func (s Scenario) Name() string {
-	return string(s.Normalization) + "/" + string(s.Aggregation) + "/" + string(s.Scope)
+	n := string(s.Normalization) + "/" + string(s.Aggregation) + "/" + string(s.Scope)
+	if s.MinSeverity > 0 {
+		n += fmt.Sprintf("/severity>=%d", s.MinSeverity)
+	}
+	return n
 }
 
 // analyzeSensitivity runs the [sensitivity] analyses after scoring, when
@@ -196,7 +203,7 @@ func (r *Run) sensitivitySettings(res *SensitivityResult) (sensitivity.Settings,
 // warnings.
 func (r *Run) structural(res *SensitivityResult) error {
 	cfg := r.Config
-	ref := Scenario{cfg.Normalization.Method, cfg.Aggregation.Method, cfg.Normalization.Scope}
+	ref := Scenario{Normalization: cfg.Normalization.Method, Aggregation: cfg.Aggregation.Method, Scope: cfg.Normalization.Scope}
 	res.Scenarios = []Scenario{ref}
 	scenarios := []sensitivity.Scenario{{Name: ref.Name(), Scores: r.Result.Composite}}
 	specs := []index.Spec{r.Result.Spec}
@@ -210,7 +217,7 @@ func (r *Run) structural(res *SensitivityResult) error {
 	for _, norm := range cfg.SensitivityNormalizations() {
 		for _, agg := range cfg.SensitivityAggregations() {
 			for _, scope := range cfg.SensitivityScopes() {
-				sc := Scenario{norm, agg, scope}
+				sc := Scenario{Normalization: norm, Aggregation: agg, Scope: scope}
 				if sc == ref {
 					continue
 				}
@@ -244,6 +251,37 @@ func (r *Run) structural(res *SensitivityResult) error {
 				scenarios = append(scenarios, sensitivity.Scenario{Name: sc.Name(), Scores: out.Composite})
 				specs = append(specs, spec)
 			}
+		}
+	}
+	if cfg.Sensitivity != nil && r.Events != nil {
+		for _, floor := range cfg.Sensitivity.Severities {
+			sc := ref
+			sc.MinSeverity = floor
+			if !r.Raw.SeverityKnown {
+				skip(sc, true, "the events table has no severity column")
+				continue
+			}
+			variant := *cfg
+			variant.Indicators = slices.Clone(cfg.Indicators)
+			for j := range variant.Indicators {
+				in := &variant.Indicators[j]
+				if in.Measure.FromEvents() && in.Measure != config.MemoryM && in.Measure != config.ResponseSlope {
+					f := floor
+					in.MinSeverity = &f
+				}
+			}
+			raw, errs := index.Compute(r.Events, r.Attrs, &variant, r.Series)
+			if len(errs) > 0 {
+				skip(sc, true, "%v", errs[0])
+				continue
+			}
+			out, err := index.Score(raw, r.Result.Spec)
+			if err != nil {
+				skip(sc, true, "%v", err)
+				continue
+			}
+			res.Scenarios = append(res.Scenarios, sc)
+			scenarios = append(scenarios, sensitivity.Scenario{Name: sc.Name(), Scores: out.Composite})
 		}
 	}
 	if len(scenarios) < 2 {

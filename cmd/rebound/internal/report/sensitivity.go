@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"rebound/index"
 	"slices"
 	"strconv"
 	"strings"
@@ -578,15 +579,26 @@ func structuralParagraph(r *pipeline.Run) string {
 		return "No other way of building the index could be scored." + skipped
 	}
 	ref := s.Scenarios[0]
-	var same, other []int
+	var same, other, sev []int
 	for q, sc := range s.Scenarios[1:] {
-		if sc.Scope == ref.Scope {
+		switch {
+		case sc.MinSeverity > 0:
+			sev = append(sev, q+1)
+		case sc.Scope == ref.Scope:
 			same = append(same, q+1)
-		} else {
+		default:
 			other = append(other, q+1)
 		}
 	}
 	var parts []string
+	if len(sev) > 0 {
+		var floors []string
+		for _, q := range sev {
+			floors = append(floors, index.SeverityNames[s.Scenarios[q].MinSeverity])
+		}
+		parts = append(parts, fmt.Sprintf("Counting the events from another severity class (%s and stronger, instead of each indicator's min_severity): %s.",
+			strings.Join(floors, " or "), spearmanRange(sr, sev)))
+	}
 	if len(same) > 0 {
 		msg := fmt.Sprintf("Other normalisations and aggregations (%s to the configured %s, named normalisation/aggregation/scope): ",
 			plural(len(same), "alternative"), sr.Names[0])
